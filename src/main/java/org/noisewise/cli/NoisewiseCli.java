@@ -1,0 +1,60 @@
+package org.noisewise.cli;
+
+import java.io.PrintWriter;
+import org.noisewise.estimate.InputException;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/**
+ * The command-line face: {@code java -jar target/noisewise.jar COMMAND ...}. Exit status 0 on
+ * success, 2 for a usage error, 3 for an input error (one line on stderr saying what is wrong and
+ * what to do), 1 for an internal error.
+ */
+@Command(name = "noisewise", mixinStandardHelpOptions = true, versionProvider = Version.class,
+        description = {"Corrected noise and SNR measurement for MR magnitude images.",
+                "For image-quality QA and research; not a diagnostic device. Where results feed acceptance or "
+                        + "safety decisions, defer to your site's qualified medical physicist and local regulations."},
+        subcommands = {BackgroundCommand.class, DemoCommand.class, GenerateSamplesCommand.class,
+                CommandLine.HelpCommand.class})
+public class NoisewiseCli implements Runnable {
+
+    public static final int EXIT_INPUT = 3;
+    public static final int EXIT_INTERNAL = 1;
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public void run() {
+        spec.commandLine().usage(spec.commandLine().getOut());
+    }
+
+    public static void main(String[] args) {
+        System.setProperty("java.awt.headless", "true");
+        System.exit(execute(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true)));
+    }
+
+    /** Runs one command line with the given streams; returns the exit status. */
+    public static int execute(String[] args, PrintWriter out, PrintWriter err) {
+        CommandLine cl = new CommandLine(new NoisewiseCli());
+        cl.setOut(out);
+        cl.setErr(err);
+        cl.setExecutionExceptionHandler((ex, commandLine, parseResult) -> {
+            if (ex instanceof InputException) {
+                err.println("noisewise: error: " + ex.getMessage());
+                err.flush();
+                return EXIT_INPUT;
+            }
+            err.println("noisewise: internal error (" + ex.getClass().getSimpleName() + ": " + ex.getMessage()
+                    + "); please report it with the command you ran");
+            err.flush();
+            return EXIT_INTERNAL;
+        });
+        cl.setParameterExceptionHandler((ex, a) -> {
+            err.println("noisewise: " + ex.getMessage() + " (see --help)");
+            err.flush();
+            return CommandLine.ExitCode.USAGE;
+        });
+        return cl.execute(args);
+    }
+}

@@ -1,0 +1,109 @@
+package org.noisewise.estimate;
+
+import java.util.Arrays;
+
+/**
+ * A named set of pixel indices ({@code y * width + x}) in one image plane. Built by the faces from
+ * ImageJ ROIs or from rectangles given on the command line.
+ */
+public record Region(String name, int[] indices) {
+
+    public Region {
+        if (name == null || name.isBlank()) {
+            throw new IllegalArgumentException("a region needs a name");
+        }
+        indices = indices.clone();
+    }
+
+    /** The pixel indices of the rectangle {@code (x, y, w, h)}; it must lie inside the image. */
+    public static Region rectangle(String name, int x, int y, int w, int h, int width, int height)
+            throws InputException {
+        if (w <= 0 || h <= 0) {
+            throw new InputException("region '" + name + "' is empty (" + w + "x" + h
+                    + "): give a width and height of at least 1 pixel");
+        }
+        if (x < 0 || y < 0 || (long) x + w > width || (long) y + h > height) {
+            throw new InputException("region '" + name + "' (x=" + x + ", y=" + y + ", w=" + w + ", h=" + h
+                    + ") lies partly outside the " + width + "x" + height
+                    + " image: move or shrink it so that it fits");
+        }
+        int[] idx = new int[w * h];
+        int k = 0;
+        for (int yy = y; yy < y + h; yy++) {
+            for (int xx = x; xx < x + w; xx++) {
+                idx[k++] = yy * width + xx;
+            }
+        }
+        return new Region(name, idx);
+    }
+
+    /** The pixel indices of the ellipse inscribed in {@code (x, y, w, h)} (pixel centres inside). */
+    public static Region oval(String name, int x, int y, int w, int h, int width, int height)
+            throws InputException {
+        Region box = rectangle(name, x, y, w, h, width, height);
+        double cx = x + w / 2.0;
+        double cy = y + h / 2.0;
+        double rx = w / 2.0;
+        double ry = h / 2.0;
+        int[] idx = Arrays.stream(box.indices).filter(i -> {
+            double dx = (i % width + 0.5 - cx) / rx;
+            double dy = (i / width + 0.5 - cy) / ry;
+            return dx * dx + dy * dy <= 1.0;
+        }).toArray();
+        if (idx.length == 0) {
+            throw new InputException("oval region '" + name + "' contains no pixel centre: make it larger");
+        }
+        return new Region(name, idx);
+    }
+
+    public int size() {
+        return indices.length;
+    }
+
+    @Override
+    public int[] indices() {
+        return indices.clone();
+    }
+
+    /**
+     * The region's values in {@code pixels}. Checks that the region is non-empty, inside the image
+     * and free of NaN or infinite values.
+     */
+    public double[] values(float[] pixels) throws InputException {
+        if (indices.length == 0) {
+            throw new InputException("region '" + name + "' contains no pixels: draw a larger region");
+        }
+        double[] v = new double[indices.length];
+        int bad = 0;
+        for (int k = 0; k < indices.length; k++) {
+            int i = indices[k];
+            if (i < 0 || i >= pixels.length) {
+                throw new InputException("region '" + name + "' reaches outside the image: move it inside");
+            }
+            v[k] = pixels[i];
+            if (!Double.isFinite(v[k])) {
+                bad++;
+            }
+        }
+        if (bad > 0) {
+            throw new InputException("region '" + name + "' holds " + bad
+                    + " NaN or infinite pixel(s): move it off masked or invalid pixels");
+        }
+        return v;
+    }
+
+    @Override
+    public boolean equals(Object o) {
+        return o instanceof Region r && r.name.equals(name) && Arrays.equals(r.indices, indices);
+    }
+
+    @Override
+    public int hashCode() {
+        return 31 * name.hashCode() + Arrays.hashCode(indices);
+    }
+
+    @Override
+    public String toString() {
+        return "Region[" + name + ", " + indices.length + " px]";
+    }
+}

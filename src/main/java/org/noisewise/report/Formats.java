@@ -1,0 +1,171 @@
+package org.noisewise.report;
+
+import com.google.gson.GsonBuilder;
+import com.google.gson.JsonArray;
+import com.google.gson.JsonElement;
+import com.google.gson.JsonNull;
+import com.google.gson.JsonObject;
+import com.google.gson.JsonPrimitive;
+import java.util.List;
+import java.util.Locale;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import java.util.stream.Collectors;
+import org.noisewise.estimate.Warning;
+
+/** Writes {@link ResultRow}s as JSON, aligned text, CSV cells. */
+public final class Formats {
+
+    private static final Pattern INDEXED = Pattern.compile("(.+)\\[(\\d+)]");
+
+    private Formats() {
+    }
+
+    /** The row as one JSON object. NaN and infinite numbers become {@code null}. */
+    public static JsonObject toJson(ResultRow row) {
+        JsonObject root = new JsonObject();
+        for (ResultRow.Cell c : row.cells()) {
+            put(root, c.key(), json(c.value()));
+        }
+        return root;
+    }
+
+    public static String toJsonString(JsonElement e) {
+        return new GsonBuilder().serializeNulls().setPrettyPrinting().disableHtmlEscaping().create().toJson(e);
+    }
+
+    private static void put(JsonObject root, String key, JsonElement value) {
+        String[] parts = key.split("\\.");
+        JsonObject obj = root;
+        for (int i = 0; i < parts.length - 1; i++) {
+            JsonElement child = obj.get(parts[i]);
+            if (child == null) {
+                child = new JsonObject();
+                obj.add(parts[i], child);
+            }
+            obj = child.getAsJsonObject();
+        }
+        String last = parts[parts.length - 1];
+        Matcher m = INDEXED.matcher(last);
+        if (m.matches()) {
+            JsonElement arr = obj.get(m.group(1));
+            if (arr == null) {
+                arr = new JsonArray();
+                obj.add(m.group(1), arr);
+            }
+            JsonArray a = arr.getAsJsonArray();
+            int index = Integer.parseInt(m.group(2));
+            while (a.size() <= index) {
+                a.add(JsonNull.INSTANCE);
+            }
+            a.set(index, value);
+        } else {
+            obj.add(last, value);
+        }
+    }
+
+    private static JsonElement json(Object v) {
+        if (v == null) {
+            return JsonNull.INSTANCE;
+        }
+        if (v instanceof Double d) {
+            return Double.isFinite(d) ? new JsonPrimitive(d) : JsonNull.INSTANCE;
+        }
+        if (v instanceof Number n) {
+            return new JsonPrimitive(n);
+        }
+        if (v instanceof List<?> list) {
+            JsonArray a = new JsonArray();
+            for (Object o : list) {
+                if (o instanceof Warning w) {
+                    JsonObject wo = new JsonObject();
+                    wo.addProperty("code", w.code());
+                    wo.addProperty("message", w.message());
+                    a.add(wo);
+                } else {
+                    a.add(json(o));
+                }
+            }
+            return a;
+        }
+        return new JsonPrimitive(v.toString());
+    }
+
+    /** A cell's value as table text: numbers to 6 significant digits, blanks for missing values. */
+    public static String text(Object v) {
+        if (v == null) {
+            return "";
+        }
+        if (v instanceof Double d) {
+            if (!Double.isFinite(d)) {
+                return "";
+            }
+            return String.format(Locale.ROOT, "%.6g", d).replaceFirst("(\\.\\d*?)0+(e|$)", "$1$2")
+                    .replaceFirst("\\.(e|$)", "$1");
+        }
+        if (v instanceof List<?> list) {
+            return list.stream().map(o -> o instanceof Warning w ? w.message() : String.valueOf(o))
+                    .collect(Collectors.joining("; "));
+        }
+        return v.toString();
+    }
+
+    /**
+     * Rows as an aligned text table: one line of headings and one line per row, or, for a single
+     * row, one "heading: value" line per cell, which reads better in a terminal.
+     */
+    public static String alignedText(List<ResultRow> rows) {
+        if (rows.isEmpty()) {
+            return "";
+        }
+        StringBuilder sb = new StringBuilder();
+        if (rows.size() == 1) {
+            List<ResultRow.Cell> cells = rows.get(0).cells();
+            int w = cells.stream().mapToInt(c -> c.heading().length()).max().orElse(0);
+            for (ResultRow.Cell c : cells) {
+                String t = text(c.value());
+                if (c.value() instanceof List<?> list) {
+                    if (list.isEmpty()) {
+                        t = "none";
+                    } else {
+                        t = list.stream().map(o -> o instanceof Warning wr ? wr.message() : String.valueOf(o))
+                                .collect(Collectors.joining("\n" + " ".repeat(w + 2)));
+                    }
+                }
+                sb.append(String.format(Locale.ROOT, "%-" + w + "s  %s%n", c.heading(), t));
+            }
+            return sb.toString();
+        }
+        List<String> heads = rows.get(0).headings();
+        int[] widths = new int[heads.size()];
+        for (int i = 0; i < heads.size(); i++) {
+            widths[i] = heads.get(i).length();
+            for (ResultRow r : rows) {
+                widths[i] = Math.max(widths[i], text(r.cells().get(i).value()).length());
+            }
+        }
+        appendLine(sb, heads, widths);
+        for (ResultRow r : rows) {
+            appendLine(sb, r.cells().stream().map(c -> text(c.value())).toList(), widths);
+        }
+        return sb.toString();
+    }
+
+    private static void appendLine(StringBuilder sb, List<String> values, int[] widths) {
+        for (int i = 0; i < values.size(); i++) {
+            if (i > 0) {
+                sb.append("  ");
+            }
+            sb.append(String.format(Locale.ROOT, "%-" + widths[i] + "s", values.get(i)));
+        }
+        sb.append(System.lineSeparator());
+    }
+
+    /** A CSV field, quoted when needed (RFC 4180). */
+    public static String csvField(String s) {
+        if (s.contains(",") || s.contains("\"") || s.contains("\n")) {
+            return '"' + s.replace("\"", "\"\"") + '"';
+        }
+        return s;
+    }
+}

@@ -132,6 +132,6 @@ public final class BackgroundSigma {
 
     /** Median of chi(2L) with unit sigma: {@code sqrt(chi2inv(0.5, 2L))}; L = 1 gives sqrt(2 ln 2). */
     public static double chiMedian(int channels) {
-        return Math.sqrt(new ChiSquaredDistribution(null, 2.0 * channels).inverseCumulativeProbability(0.5));
+        return Math.sqrt(new ChiSquaredDistribution(null, 2.0 * channels, 1e-15).inverseCumulativeProbability(0.5));
     }
 }

@@ -14,7 +14,8 @@ import picocli.CommandLine.Command;
         description = {"Corrected noise and SNR measurement for MR magnitude images.",
                 "For image-quality QA and research; not a diagnostic device. Where results feed acceptance or "
                         + "safety decisions, defer to your site's qualified medical physicist and local regulations."},
-        subcommands = {BackgroundCommand.class, DemoCommand.class, GenerateSamplesCommand.class,
+        subcommands = {BackgroundCommand.class, DifferenceCommand.class, RepeatCommand.class, CheckCommand.class,
+                CorrectCommand.class, DemoCommand.class, GenerateSamplesCommand.class,
                 CommandLine.HelpCommand.class})
 public class NoisewiseCli implements Runnable {
 

@@ -1,0 +1,100 @@
+package org.noisewise.imagej;
+
+import ij.IJ;
+import ij.ImagePlus;
+import ij.WindowManager;
+import ij.gui.GenericDialog;
+import ij.gui.Plot;
+import ij.gui.Roi;
+import ij.measure.ResultsTable;
+import ij.plugin.PlugIn;
+import java.nio.file.Path;
+import java.util.List;
+import org.noisewise.diagnose.BackgroundCheck;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Region;
+import org.noisewise.io.BackgroundValues;
+import org.noisewise.io.HistogramPlot;
+import org.noisewise.io.ImagePlanes;
+import org.noisewise.io.ImageWriter;
+import org.noisewise.report.MethodRows;
+
+/**
+ * {@code Plugins>Noisewise>Background Noise Check...}: does the background behave like magnitude
+ * noise? Histogram with the fitted Rayleigh / chi(2L) curve and a Gaussian, bootstrap goodness of
+ * fit, agreement of the four sigma estimators, zeros and clipping, and a verdict with reasons.
+ *
+ * <p>Macro keys: {@code channels} (L), {@code plot} (show the histogram plot), {@code png} (a file
+ * to save the plot to, optional), {@code region_N} roles. Background regions: ROI Manager regions
+ * named {@code background/bg/air/noise...}, else every ROI Manager region when none has a role, else
+ * the selection.
+ */
+public class BackgroundCheckCommand implements PlugIn {
+
+    static final String TITLE = "Background Noise Check";
+
+    /** What one run produced. */
+    public record Output(BackgroundCheck.Result result, ResultsTable table, Plot plot) {
+    }
+
+    @Override
+    public void run(String arg) {
+        ImagePlus imp = WindowManager.getCurrentImage();
+        if (imp == null) {
+            IJ.noImage();
+            return;
+        }
+        RegionRoles regions = RegionRoles.of(imp);
+        GenericDialog gd = new GenericDialog(TITLE);
+        gd.addNumericField("Channels (L):", 1, 0);
+        gd.addCheckbox("Plot histogram and fit", true);
+        gd.addStringField("PNG file for the plot (optional):", "", 30);
+        regions.addFields(gd);
+        gd.addHelp("<html><b>Background Noise Check</b><br>Tests whether the background regions hold "
+                + "unprocessed magnitude noise (Rayleigh, or chi(2L) for L channels): masking, clipping, "
+                + "quantisation, goodness of fit (bootstrap p-value) and agreement of the sigma estimators.</html>");
+        gd.showDialog();
+        if (gd.wasCanceled()) {
+            return;
+        }
+        int channels = (int) Math.round(gd.getNextNumber());
+        boolean plot = gd.getNextBoolean();
+        String png = gd.getNextString().trim();
+        regions.readFields(gd);
+        try {
+            if (gd.invalidNumber() || channels < 1) {
+                throw new InputException("the channel count must be a whole number of at least 1");
+            }
+            Output out = process(imp, imp.getCurrentSlice(), regions.backgroundRegions(), channels);
+            out.table().show(tableTitle(imp));
+            if (!png.isEmpty()) {
+                ImageWriter.savePng(out.plot().getImagePlus(), Path.of(png), true);
+            }
+            if (plot) {
+                out.plot().show();
+            }
+        } catch (InputException e) {
+            IJ.error(TITLE, e.getMessage());
+        }
+    }
+
+    public static String tableTitle(ImagePlus imp) {
+        return "Background check - " + imp.getTitle();
+    }
+
+    /** Checks slice {@code slice} (1-based). Never modifies {@code imp}. */
+    public static Output process(ImagePlus imp, int slice, List<Roi> background, int channels) throws InputException {
+        ImagePlanes.requireGrayscale(imp);
+        if (background == null || background.isEmpty()) {
+            throw new InputException("no background region: add regions in air to the ROI Manager and name them "
+                    + "'background', 'bg', 'air' or 'noise'");
+        }
+        List<Region> regions = RegionRoles.toRegions(background, "background", imp.getWidth(), imp.getHeight());
+        double[] values = BackgroundValues.pooled(ImagePlanes.calibratedPixels(imp, slice), regions);
+        BackgroundCheck.Result r = BackgroundCheck.check(values, channels, BackgroundValues.storage(imp));
+        String unit = ImagePlanes.valueUnit(imp);
+        ResultsTable rt = Tables.toResultsTable(List.of(MethodRows.check(imp.getTitle(), slice, unit, r)));
+        Plot plot = HistogramPlot.build("Background histogram - " + imp.getTitle(), values, r, unit);
+        return new Output(r, rt, plot);
+    }
+}

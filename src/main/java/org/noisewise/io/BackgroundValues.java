@@ -1,0 +1,58 @@
+package org.noisewise.io;
+
+import ij.ImagePlus;
+import java.util.List;
+import org.noisewise.diagnose.BackgroundCheck;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Region;
+
+/** Pooled background values and what the image's storage type implies about them. */
+public final class BackgroundValues {
+
+    private BackgroundValues() {
+    }
+
+    /** The regions' values, pooled; at least two pixels, none negative. */
+    public static double[] pooled(float[] pixels, List<Region> regions) throws InputException {
+        int total = 0;
+        double[][] parts = new double[regions.size()][];
+        for (int i = 0; i < regions.size(); i++) {
+            parts[i] = regions.get(i).values(pixels);
+            total += parts[i].length;
+        }
+        if (total < 2) {
+            throw new InputException("the background regions hold " + total + " pixel: draw larger regions");
+        }
+        double[] out = new double[total];
+        int k = 0;
+        for (double[] p : parts) {
+            System.arraycopy(p, 0, out, k, p.length);
+            k += p.length;
+        }
+        for (double v : out) {
+            if (v < 0) {
+                throw new InputException("the background holds negative values, which a magnitude image cannot "
+                        + "have: this looks like a real, phase or subtracted image; use a magnitude image");
+            }
+        }
+        return out;
+    }
+
+    /**
+     * Quantisation step and largest storable value in calibrated units: 8- and 16-bit data step by the
+     * calibration's slope (1 without calibration); 32-bit data are treated as continuous.
+     */
+    public static BackgroundCheck.Storage storage(ImagePlus imp) {
+        int depth = imp.getBitDepth();
+        if (depth == 32) {
+            return BackgroundCheck.Storage.floatingPoint();
+        }
+        float[] ctable = imp.getCalibration().getCTable();
+        int maxRaw = depth == 8 ? 255 : 65535;
+        if (ctable == null) {
+            return new BackgroundCheck.Storage(1.0, maxRaw);
+        }
+        double step = Math.abs(ctable[Math.min(1, ctable.length - 1)] - ctable[0]);
+        return new BackgroundCheck.Storage(step, ctable[Math.min(maxRaw, ctable.length - 1)]);
+    }
+}

@@ -1,0 +1,66 @@
+package org.noisewise.io;
+
+import ij.gui.Plot;
+import java.awt.Color;
+import java.util.Locale;
+import org.apache.commons.math3.distribution.NakagamiDistribution;
+import org.apache.commons.math3.distribution.NormalDistribution;
+import org.noisewise.diagnose.BackgroundCheck;
+
+/**
+ * The background histogram (as a density) with the fitted Rayleigh / chi(2L) curve and, for
+ * comparison, the Gaussian of the same mean and SD, as an ImageJ {@link Plot}.
+ */
+public final class HistogramPlot {
+
+    private HistogramPlot() {
+    }
+
+    public static Plot build(String title, double[] values, BackgroundCheck.Result r, String unit) {
+        double max = 0;
+        for (double v : values) {
+            max = Math.max(max, v);
+        }
+        double sigma = r.sigma();
+        double hi = Math.max(max, sigma * (Math.sqrt(2.0 * r.channels()) + 4));
+        int bins = (int) Math.max(10, Math.min(100, Math.round(2 * Math.cbrt(values.length))));
+        double width = hi / bins;
+        double[] centres = new double[bins];
+        double[] density = new double[bins];
+        for (double v : values) {
+            int b = (int) Math.min(bins - 1, Math.floor(v / width));
+            density[b]++;
+        }
+        for (int b = 0; b < bins; b++) {
+            centres[b] = (b + 0.5) * width;
+            density[b] /= values.length * width;
+        }
+        int m = 400;
+        double[] x = new double[m];
+        double[] model = new double[m];
+        double[] gauss = new double[m];
+        NakagamiDistribution chi = new NakagamiDistribution(r.channels(), 2.0 * r.channels() * sigma * sigma);
+        NormalDistribution normal = new NormalDistribution(null, r.stats().mean(), Math.max(r.stats().sd(), 1e-12));
+        for (int i = 0; i < m; i++) {
+            x[i] = hi * i / (m - 1);
+            model[i] = chi.density(x[i]);
+            gauss[i] = normal.density(x[i]);
+        }
+        Plot plot = new Plot(title, "Background value [" + unit + "]", "Probability density");
+        plot.setColor(new Color(150, 150, 150), new Color(210, 210, 210));
+        plot.add("bar", centres, density);
+        plot.setLineWidth(2);
+        plot.setColor(new Color(20, 90, 170));
+        plot.add("line", x, model);
+        plot.setColor(new Color(200, 110, 20));
+        plot.setLineWidth(1);
+        plot.add("line", x, gauss);
+        plot.setColor(Color.black);
+        plot.setLegend("histogram\t" + BackgroundCheck.modelName(r.channels()) + String.format(Locale.ROOT,
+                ", sigma = %.4g (ML)", sigma) + "\tGaussian, same mean and SD", Plot.TOP_RIGHT | Plot.AUTO_POSITION);
+        plot.addLabel(0.02, 0.08, String.format(Locale.ROOT, "verdict: %s   fit p = %.3f   agreement p = %.3f",
+                r.verdict().key(), r.fitP(), r.agreementP()));
+        plot.setLimits(0, hi, 0, Double.NaN);
+        return plot;
+    }
+}

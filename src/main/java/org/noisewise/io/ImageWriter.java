@@ -1,0 +1,107 @@
+package org.noisewise.io;
+
+import ij.ImagePlus;
+import ij.io.FileSaver;
+import java.io.IOException;
+import java.nio.file.AtomicMoveNotSupportedException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import org.noisewise.estimate.InputException;
+
+/**
+ * Writes output files safely: never over an existing file unless asked, and through a temporary
+ * file in the same folder renamed into place, so an interrupted run leaves no half-written file.
+ */
+public final class ImageWriter {
+
+    private ImageWriter() {
+    }
+
+    /** Checks that {@code out} may be written. */
+    public static void checkWritable(Path out, boolean force) throws InputException {
+        if (Files.isDirectory(out)) {
+            throw new InputException("'" + out + "' is a folder: give a file name for the output");
+        }
+        if (Files.exists(out) && !force) {
+            throw new InputException("'" + out + "' exists: choose another name or add --force to replace it");
+        }
+        Path dir = out.toAbsolutePath().getParent();
+        if (dir != null && !Files.isDirectory(dir)) {
+            throw new InputException("folder '" + dir + "' does not exist: create it first");
+        }
+    }
+
+    /** Saves {@code imp} as TIFF at {@code out}. */
+    public static void saveTiff(ImagePlus imp, Path out, boolean force) throws InputException {
+        checkWritable(out, force);
+        Path tmp = temporaryBeside(out);
+        try {
+            boolean ok = imp.getStackSize() > 1 ? new FileSaver(imp).saveAsTiffStack(tmp.toString())
+                    : new FileSaver(imp).saveAsTiff(tmp.toString());
+            if (!ok) {
+                throw new InputException("could not write '" + out + "': check the disk and permissions");
+            }
+            moveIntoPlace(tmp, out);
+        } finally {
+            deleteQuietly(tmp);
+        }
+    }
+
+    /** Saves {@code imp} as PNG at {@code out}. */
+    public static void savePng(ImagePlus imp, Path out, boolean force) throws InputException {
+        checkWritable(out, force);
+        Path tmp = temporaryBeside(out);
+        try {
+            if (!new FileSaver(imp).saveAsPng(tmp.toString())) {
+                throw new InputException("could not write '" + out + "': check the disk and permissions");
+            }
+            moveIntoPlace(tmp, out);
+        } finally {
+            deleteQuietly(tmp);
+        }
+    }
+
+    /** Writes text atomically. */
+    public static void writeText(String text, Path out, boolean force) throws InputException {
+        checkWritable(out, force);
+        Path tmp = temporaryBeside(out);
+        try {
+            Files.writeString(tmp, text);
+            moveIntoPlace(tmp, out);
+        } catch (IOException e) {
+            throw new InputException("could not write '" + out + "': " + e.getMessage());
+        } finally {
+            deleteQuietly(tmp);
+        }
+    }
+
+    static Path temporaryBeside(Path out) throws InputException {
+        Path dir = out.toAbsolutePath().getParent();
+        try {
+            return Files.createTempFile(dir, "." + out.getFileName() + ".", ".part");
+        } catch (IOException e) {
+            throw new InputException("cannot write in '" + dir + "': " + e.getMessage());
+        }
+    }
+
+    static void moveIntoPlace(Path tmp, Path out) throws InputException {
+        try {
+            try {
+                Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+            } catch (AtomicMoveNotSupportedException e) {
+                Files.move(tmp, out, StandardCopyOption.REPLACE_EXISTING);
+            }
+        } catch (IOException e) {
+            throw new InputException("could not write '" + out + "': " + e.getMessage());
+        }
+    }
+
+    private static void deleteQuietly(Path p) {
+        try {
+            Files.deleteIfExists(p);
+        } catch (IOException ignored) {
+            // a leftover temporary file is harmless and named as such
+        }
+    }
+}

@@ -1,0 +1,52 @@
+package org.noisewise.io;
+
+import ij.ImagePlus;
+import ij.ImageStack;
+import ij.measure.Calibration;
+import ij.process.FloatProcessor;
+import org.noisewise.estimate.RepeatedAcquisitions;
+
+/** New ImageJ images made from core results; the source image's spatial calibration is copied. */
+public final class ResultImages {
+
+    private ResultImages() {
+    }
+
+    /** A new 32-bit image with the spatial calibration of {@code like} and the given value unit. */
+    public static ImagePlus floatImage(String title, int width, int height, float[] pixels, ImagePlus like,
+                                       String valueUnit) {
+        ImagePlus imp = new ImagePlus(title, new FloatProcessor(width, height, pixels));
+        copyCalibration(like, imp, valueUnit);
+        imp.resetDisplayRange();
+        return imp;
+    }
+
+    /** A three-slice stack: mean, SD and SNR maps. */
+    public static ImagePlus mapStack(String title, RepeatedAcquisitions.Maps maps, ImagePlus like) {
+        ImageStack st = new ImageStack(maps.width(), maps.height());
+        st.addSlice("mean", new FloatProcessor(maps.width(), maps.height(), maps.mean()));
+        st.addSlice("SD", new FloatProcessor(maps.width(), maps.height(), maps.sd()));
+        st.addSlice("SNR", new FloatProcessor(maps.width(), maps.height(), maps.snr()));
+        ImagePlus imp = new ImagePlus(title, st);
+        copyCalibration(like, imp, null);
+        return imp;
+    }
+
+    private static void copyCalibration(ImagePlus from, ImagePlus to, String valueUnit) {
+        if (from == null) {
+            return;
+        }
+        Calibration src = from.getCalibration();
+        Calibration cal = new Calibration();
+        cal.pixelWidth = src.pixelWidth;
+        cal.pixelHeight = src.pixelHeight;
+        cal.pixelDepth = src.pixelDepth;
+        cal.xOrigin = src.xOrigin;
+        cal.yOrigin = src.yOrigin;
+        cal.setUnit(src.getUnit());
+        if (valueUnit != null && !valueUnit.equals("a.u.")) {
+            cal.setValueUnit(valueUnit);
+        }
+        to.setCalibration(cal);
+    }
+}

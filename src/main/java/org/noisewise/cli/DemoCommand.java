@@ -8,30 +8,40 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.noisewise.diagnose.BackgroundCheck;
 import org.noisewise.estimate.BackgroundSnr;
 import org.noisewise.estimate.BackgroundSnrResult;
+import org.noisewise.estimate.DifferenceSnr;
+import org.noisewise.estimate.DifferenceSnrResult;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
+import org.noisewise.estimate.RepeatedAcquisitions;
+import org.noisewise.estimate.RepeatedSnrResult;
 import org.noisewise.estimate.SigmaEstimate;
 import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.estimate.Warning;
+import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.io.ImagePlanes;
+import org.noisewise.io.StackPlanes;
 import org.noisewise.sample.SampleCatalog;
 import org.noisewise.sample.SampleCatalog.Rect;
 import org.noisewise.sample.SampleCatalog.Sample;
+import org.noisewise.sample.SampleCatalog.Use;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 import picocli.CommandLine.Model.CommandSpec;
 
 /**
- * {@code noisewise demo}: runs the measurements on the bundled samples and prints each beside the
+ * {@code noisewise demo}: runs every method on the bundled samples and prints each result beside the
  * known truth and beside the uncorrected hand method.
  */
 @Command(name = "demo", mixinStandardHelpOptions = true,
-        description = "Measure the bundled sample images and compare with their known truth.")
+        description = "Measure the bundled sample images with every method and compare with their known truth.")
 public class DemoCommand implements Callable<Integer> {
+
+    private static final String ROW = "  %-36s %10s %10s   %s%n";
 
     @Spec
     CommandSpec spec;
@@ -40,20 +50,31 @@ public class DemoCommand implements Callable<Integer> {
             description = "Folder of the sample images (default: ${DEFAULT-VALUE}).")
     Path samples;
 
+    private PrintWriter out;
+
     @Override
     public Integer call() throws InputException {
         if (!Files.isDirectory(samples)) {
             throw new InputException("sample folder '" + samples + "' not found: run the demo from the "
                     + "repository's top folder or give --samples DIR");
         }
-        PrintWriter out = spec.commandLine().getOut();
-        out.println("Noisewise demo: background-corrected SNR on the bundled samples in " + samples);
+        out = spec.commandLine().getOut();
+        out.println("Noisewise demo: every method on the bundled samples in " + samples);
         out.println("Scenario (invented): the imaging-physics bench of the fictional Fernhollow Institute.");
         out.println("Truth is known because the images were generated (org.noisewise.sample.SampleCatalog).");
+        heading("1. Background method (single image), corrected for the magnitude noise model");
         for (Sample s : SampleCatalog.SAMPLES) {
-            out.println();
-            report(out, s);
+            if (s.use() == Use.BACKGROUND) {
+                background(s);
+            }
         }
+        heading("2. Two acquisitions (NEMA difference method)");
+        difference(SampleCatalog.first(Use.PAIR_FIRST), SampleCatalog.first(Use.PAIR_SECOND));
+        heading("3. Repeated acquisitions, with and without Rician (Koay-Basser) correction");
+        repeated(SampleCatalog.first(Use.REPEATS));
+        heading("4. Background noise check: is the background fit for the background method?");
+        check(SampleCatalog.first(Use.BACKGROUND));
+        check(SampleCatalog.first(Use.MASKED));
         out.println();
         out.println("Hand method = signal mean / SD of air, uncorrected: too high by 1/0.655 = 1.53x for one channel.");
         out.println("For image-quality QA and research only, not diagnosis; acceptance decisions rest with your site's");
@@ -62,42 +83,125 @@ public class DemoCommand implements Callable<Integer> {
         return 0;
     }
 
-    private void report(PrintWriter out, Sample s) throws InputException {
-        ImagePlus imp = ImageFiles.open(samples.resolve(s.file()));
-        float[] px = ImagePlanes.calibratedPixels(imp, 1);
-        Region signal = region("signal", s.signal(), imp);
-        List<Region> bg = new ArrayList<>();
-        for (int i = 0; i < s.background().size(); i++) {
-            bg.add(region("background " + (i + 1), s.background().get(i), imp));
-        }
-        BackgroundSnrResult r = BackgroundSnr.analyze(px, signal, bg,
-                new BackgroundSnr.Options(s.channels(), SigmaEstimator.ML));
-        SigmaEstimate sig = r.sigma();
-        out.printf(Locale.ROOT, "%s  (%s)%n", s.file(), s.description());
-        out.printf(Locale.ROOT, "  %-34s %10s %10s   %s%n", "", "true", "measured", "95% interval");
-        out.printf(Locale.ROOT, "  %-34s %10.3f %10.3f   [%.3f, %.3f]%n", "noise sigma, L = " + s.channels()
-                + " (a.u.)", s.sigma(), sig.sigma(), sig.ci95().low(), sig.ci95().high());
-        out.printf(Locale.ROOT, "  %-34s %10.2f %10.2f   [%.2f, %.2f]%n", "SNR", s.trueSnr(), r.snr(),
-                r.snrCi95().low(), r.snrCi95().high());
-        double hand = r.signal().mean() / r.background().sd();
-        out.printf(Locale.ROOT, "  %-34s %10.2f %10.2f   (%+.0f%% off)%n", "hand method S / SD(air)", s.trueSnr(),
-                hand, 100 * (hand / s.trueSnr() - 1));
-        if (s.channels() > 1) {
-            BackgroundSnrResult wrong = BackgroundSnr.analyze(px, signal, bg,
-                    new BackgroundSnr.Options(1, SigmaEstimator.MEAN));
-            out.printf(Locale.ROOT, "  %-34s %10.3f %10.3f   (%.2fx the truth: channel count matters)%n",
-                    "sigma if L = 1 were assumed", s.sigma(), wrong.sigma().sigma(),
-                    wrong.sigma().sigma() / s.sigma());
-        }
-        if (r.warnings().isEmpty()) {
+    private void heading(String text) {
+        out.println();
+        out.println(text);
+        out.println("-".repeat(text.length()));
+    }
+
+    private void title(Sample s) {
+        out.printf(Locale.ROOT, "%n%s  (%s)%n", s.file(), s.description());
+        out.printf(Locale.ROOT, ROW, "", "true", "measured", "95% interval");
+    }
+
+    private void line(String what, double truth, double measured, String ci) {
+        out.printf(Locale.ROOT, ROW, what, fmt(truth), fmt(measured), ci);
+    }
+
+    private static String fmt(double v) {
+        return Double.isNaN(v) ? "n/a" : String.format(Locale.ROOT, "%.3f", v);
+    }
+
+    private static String ci(double lo, double hi) {
+        return String.format(Locale.ROOT, "[%.3f, %.3f]", lo, hi);
+    }
+
+    private void warnings(List<Warning> warnings) {
+        if (warnings.isEmpty()) {
             out.println("  warnings: none");
         }
-        for (Warning w : r.warnings()) {
+        for (Warning w : warnings) {
             out.println("  warning [" + w.code() + "]: " + w.message());
         }
     }
 
-    private static Region region(String name, Rect r, ImagePlus imp) throws InputException {
-        return Region.rectangle(name, r.x(), r.y(), r.w(), r.h(), imp.getWidth(), imp.getHeight());
+    private ImagePlus open(Sample s) throws InputException {
+        return ImageFiles.open(samples.resolve(s.file()));
+    }
+
+    private static Region region(String name, Rect r) throws InputException {
+        return Region.rectangle(name, r.x(), r.y(), r.w(), r.h(), SampleCatalog.SIZE, SampleCatalog.SIZE);
+    }
+
+    private static List<Region> backgroundRegions(Sample s) throws InputException {
+        List<Region> bg = new ArrayList<>();
+        for (int i = 0; i < s.background().size(); i++) {
+            bg.add(region("background " + (i + 1), s.background().get(i)));
+        }
+        return bg;
+    }
+
+    private void background(Sample s) throws InputException {
+        float[] px = ImagePlanes.calibratedPixels(open(s), 1);
+        Region signal = region("signal", s.signal());
+        List<Region> bg = backgroundRegions(s);
+        BackgroundSnrResult r = BackgroundSnr.analyze(px, signal, bg,
+                new BackgroundSnr.Options(s.channels(), SigmaEstimator.ML));
+        SigmaEstimate sig = r.sigma();
+        title(s);
+        line("noise sigma, L = " + s.channels() + " (a.u.)", s.sigma(), sig.sigma(), ci(sig.ci95().low(), sig.ci95().high()));
+        line("SNR", s.trueSnr(), r.snr(), ci(r.snrCi95().low(), r.snrCi95().high()));
+        double hand = r.signal().mean() / r.background().sd();
+        line("hand method S / SD(air)", s.trueSnr(), hand,
+                String.format(Locale.ROOT, "(%+.0f%% off)", 100 * (hand / s.trueSnr() - 1)));
+        if (s.channels() > 1) {
+            BackgroundSnrResult wrong = BackgroundSnr.analyze(px, signal, bg,
+                    new BackgroundSnr.Options(1, SigmaEstimator.MEAN));
+            line("sigma if L = 1 were assumed", s.sigma(), wrong.sigma().sigma(), String.format(Locale.ROOT,
+                    "(%.2fx the truth: the channel count matters)", wrong.sigma().sigma() / s.sigma()));
+        }
+        warnings(r.warnings());
+    }
+
+    private void difference(Sample a, Sample b) throws InputException {
+        DifferenceSnrResult r = DifferenceSnr.analyze(ImagePlanes.calibratedPixels(open(a), 1),
+                ImagePlanes.calibratedPixels(open(b), 1), region("signal", a.signal()), a.channels());
+        title(a);
+        out.println("  with " + b.file() + "; sigma = SD(difference) / sqrt(2) over the signal region");
+        line("noise sigma (a.u.)", a.sigma(), r.sigma(), ci(r.sigmaCi95().low(), r.sigmaCi95().high()));
+        line("SNR", a.trueSnr(), r.snr(), ci(r.snrCi95().low(), r.snrCi95().high()));
+        warnings(r.warnings());
+    }
+
+    private void repeated(Sample s) throws InputException {
+        ImagePlus imp = open(s);
+        RepeatedAcquisitions.Maps m = RepeatedAcquisitions.maps(StackPlanes.repeats(imp, 1), imp.getWidth(),
+                imp.getHeight(), null);
+        Region signal = region("signal", s.signal());
+        RepeatedSnrResult raw = RepeatedAcquisitions.summarize(m, signal, false, s.channels());
+        RepeatedSnrResult cor = RepeatedAcquisitions.summarize(m, signal, true, s.channels());
+        title(s);
+        out.println("  " + m.repeats() + " repeats; sigma = sqrt(region mean of per-pixel variances)");
+        line("signal, raw magnitude mean (a.u.)", s.amplitude(), raw.signalMean(),
+                String.format(Locale.ROOT, "(%+.0f%%: Rician bias)", 100 * (raw.signalMean() / s.amplitude() - 1)));
+        line("signal, Koay-Basser corrected", s.amplitude(), cor.rician().amplitude(),
+                String.format(Locale.ROOT, "(%+.1f%%)", 100 * (cor.rician().amplitude() / s.amplitude() - 1)));
+        line("noise sigma, raw pooled SD", s.sigma(), raw.sigma(), ci(raw.sigmaCi95().low(), raw.sigmaCi95().high()));
+        line("noise sigma, corrected", s.sigma(), cor.rician().sigma(), "");
+        line("SNR, raw", s.trueSnr(), raw.snr(), ci(raw.snrCi95().low(), raw.snrCi95().high()));
+        line("SNR, corrected", s.trueSnr(), cor.correctedSnr(), "");
+        line("mean of the SNR map (biased)", s.trueSnr(), raw.snrMapMean(),
+                String.format(Locale.ROOT, "(expected %.2fx the raw SNR for K = %d)", raw.snrMapBias(), m.repeats()));
+        warnings(raw.warnings());
+    }
+
+    private void check(Sample s) throws InputException {
+        ImagePlus imp = open(s);
+        double[] values = BackgroundValues.pooled(ImagePlanes.calibratedPixels(imp, 1), backgroundRegions(s));
+        BackgroundCheck.Result r = BackgroundCheck.check(values, s.channels(), BackgroundValues.storage(imp));
+        out.printf(Locale.ROOT, "%n%s  (%s)%n", s.file(), s.description());
+        out.printf(Locale.ROOT, "  verdict: %s   (L = %d, fit p = %s, estimator agreement p = %s, zeros %.1f%%)%n",
+                r.verdict().key(), s.channels(), fmt(r.fitP()), fmt(r.agreementP()), 100 * r.zeroFraction());
+        for (Warning w : r.reasons()) {
+            out.println("  reason [" + w.code() + "]: " + w.message());
+        }
+        if (s.use() == Use.MASKED) {
+            try {
+                BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, 1), region("signal", s.signal()),
+                        backgroundRegions(s), new BackgroundSnr.Options(s.channels(), SigmaEstimator.ML));
+            } catch (InputException e) {
+                out.println("  background method refused: " + e.getMessage());
+            }
+        }
     }
 }

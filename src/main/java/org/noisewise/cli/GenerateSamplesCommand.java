@@ -3,6 +3,7 @@ package org.noisewise.cli;
 import com.google.gson.JsonArray;
 import com.google.gson.JsonObject;
 import ij.ImagePlus;
+import ij.ImageStack;
 import ij.io.FileSaver;
 import ij.process.FloatProcessor;
 import java.io.IOException;
@@ -32,10 +33,15 @@ public class GenerateSamplesCommand implements Callable<Integer> {
             Files.createDirectories(out);
             JsonArray truth = new JsonArray();
             for (Sample s : SampleCatalog.SAMPLES) {
-                FloatProcessor fp = new FloatProcessor(SampleCatalog.SIZE, SampleCatalog.SIZE, s.generate());
-                ImagePlus imp = new ImagePlus(s.file(), fp);
+                ImageStack st = new ImageStack(SampleCatalog.SIZE, SampleCatalog.SIZE);
+                for (float[] frame : s.generate()) {
+                    st.addSlice(new FloatProcessor(SampleCatalog.SIZE, SampleCatalog.SIZE, frame));
+                }
+                ImagePlus imp = new ImagePlus(s.file(), st);
                 imp.setProperty("Info", "Noisewise generated sample (invented scenario): " + s.description());
-                if (!new FileSaver(imp).saveAsTiff(out.resolve(s.file()).toString())) {
+                FileSaver saver = new FileSaver(imp);
+                String path = out.resolve(s.file()).toString();
+                if (!(st.getSize() > 1 ? saver.saveAsTiffStack(path) : saver.saveAsTiff(path))) {
                     throw new InputException("could not write " + out.resolve(s.file()));
                 }
                 truth.add(toJson(s));
@@ -55,6 +61,8 @@ public class GenerateSamplesCommand implements Callable<Integer> {
         JsonObject o = new JsonObject();
         o.addProperty("file", s.file());
         o.addProperty("description", s.description());
+        o.addProperty("use", s.use().name().toLowerCase(java.util.Locale.ROOT));
+        o.addProperty("frames", s.frames());
         o.addProperty("channels", s.channels());
         o.addProperty("amplitude", s.amplitude());
         o.addProperty("sigma", s.sigma());

@@ -99,15 +99,26 @@ public final class BackgroundCheck {
         double zeroFraction = (double) zeros / n;
         double clippedFraction = (double) clipped / n;
 
+        if (!(sigma > 0)) {
+            Warning allZero = new Warning("masked_background", "every background pixel is exactly zero: the background "
+                    + "was masked or zero-filled by the reconstruction, so it holds no noise; acquire twice and use the "
+                    + "difference method");
+            return new Result(channels, n, est, stats, zeroFraction, clippedFraction, Double.NaN, Double.NaN,
+                    Double.NaN, Double.NaN, Verdict.INVALID, List.of(allZero));
+        }
         double[] sorted = background.clone();
         Arrays.sort(sorted);
         double ks = ksDistance(sorted, channels, sigma);
         double dis = disagreement(est);
         // Parametric bootstrap, one independent seeded stream per replicate so the result does not
         // depend on how the replicates are spread over the cores.
-        long seed = seedOf(sorted);
+        SplittableRandom master = new SplittableRandom(seedOf(sorted));
+        SplittableRandom[] streams = new SplittableRandom[BOOTSTRAP];
+        for (int b = 0; b < BOOTSTRAP; b++) {
+            streams[b] = master.split();
+        }
         int[] exceed = IntStream.range(0, BOOTSTRAP).parallel().mapToObj(b -> {
-            SplittableRandom rng = new SplittableRandom(seed + 0x9E3779B97F4A7C15L * (b + 1));
+            SplittableRandom rng = streams[b];
             double[] sim = new double[n];
             for (int i = 0; i < n; i++) {
                 sim[i] = Phantoms.magnitude(rng, 0.0, sigma, channels);

@@ -139,11 +139,13 @@ public final class RepeatedAcquisitions {
         KoayBasser.Correction corr = null;
         if (rician) {
             corr = KoayBasser.correct(signalMean, sigma, channels);
-        } else {
-            Warning low = SnrMath.lowSnrWarning(snr, channels);
-            if (low != null) {
-                warnings.add(low);
-            }
+        } else if (snr < SnrMath.LOW_SNR_LIMIT && signalMean > 0) {
+            KoayBasser.Correction c = KoayBasser.correct(signalMean, sigma, channels);
+            warnings.add(new Warning("low_snr", String.format(Locale.ROOT,
+                    "SNR %.2f is below %.0f: the magnitude mean is biased upward and the magnitude SD downward by "
+                            + "noise; Koay-Basser correction gives signal %.4g and sigma %.4g (SNR %.2f). Use the Rician "
+                            + "correction option.", snr, SnrMath.LOW_SNR_LIMIT, c.amplitude(), c.sigma(),
+                    c.amplitude() / c.sigma())));
         }
         if (maps.repeats() < 8) {
             warnings.add(new Warning("few_repeats", String.format(Locale.ROOT,

@@ -29,7 +29,11 @@ class SampleImagesTest {
         for (SampleCatalog.Sample s : SampleCatalog.SAMPLES) {
             ImagePlus imp = ImageFiles.open(DIR.resolve(s.file()));
             assertEquals(SampleCatalog.SIZE, imp.getWidth());
-            assertArrayEquals(s.generate(), ImagePlanes.calibratedPixels(imp, 1), s.file());
+            float[][] frames = s.generate();
+            assertEquals(frames.length, imp.getStackSize(), s.file());
+            for (int f = 0; f < frames.length; f++) {
+                assertArrayEquals(frames[f], ImagePlanes.calibratedPixels(imp, f + 1), s.file() + " frame " + (f + 1));
+            }
         }
     }
 

@@ -1,0 +1,129 @@
+package org.noisewise.docs;
+
+import ij.IJ;
+import ij.ImagePlus;
+import ij.WindowManager;
+import ij.gui.Roi;
+import ij.plugin.frame.RoiManager;
+import java.awt.Rectangle;
+import java.awt.Robot;
+import java.awt.Window;
+import java.awt.image.BufferedImage;
+import java.io.File;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import javax.imageio.ImageIO;
+import org.noisewise.sample.SampleCatalog;
+import org.noisewise.sample.SampleCatalog.Rect;
+import org.noisewise.testing.ImageJHarness;
+
+/**
+ * Makes the README's screenshots from the bundled samples: real ImageJ windows under a virtual
+ * display, captured with {@link Robot}. Run by {@code docs/make-screenshots.sh}; not a test.
+ */
+public final class Screenshots {
+
+    private static Path out;
+    private static Robot robot;
+
+    private Screenshots() {
+    }
+
+    public static void main(String[] args) throws Exception {
+        out = Path.of(args.length > 0 ? args[0] : "docs/images");
+        Files.createDirectories(out);
+        ImageJHarness.start();
+        robot = new Robot();
+        RoiManager rm = RoiManager.getRoiManager();
+
+        ImagePlus one = open("aster_disk_1ch.tif");
+        rm.reset();
+        add(rm, SampleCatalog.SIGNAL, "signal");
+        for (int i = 0; i < SampleCatalog.BACKGROUND.size(); i++) {
+            add(rm, SampleCatalog.BACKGROUND.get(i), "bg " + (i + 1));
+        }
+        one.show();
+        IJ.run(one, "Set... ", "zoom=300");
+        rm.runCommand(one, "Show All with labels");
+        settle();
+        capture(one.getWindow(), "background-regions.png");
+        IJ.run(one, "SNR (Background Regions)...", "channels=1 estimator=[Maximum likelihood] slices=[Current slice] "
+                + "roles=[Region names]");
+        settle();
+        capture(WindowManager.getWindow("SNR background - aster_disk_1ch.tif"), "background-table.png");
+        IJ.run(one, "Background Noise Check...", "channels=1 plot png=[]");
+        settle();
+        capture(WindowManager.getWindow("Background histogram - aster_disk_1ch.tif"), "check-plot.png");
+        capture(WindowManager.getWindow("Background check - aster_disk_1ch.tif"), "check-table.png");
+
+        ImagePlus a = open("aster_disk_acq1.tif");
+        ImagePlus b = open("aster_disk_acq2.tif");
+        a.show();
+        b.show();
+        rm.reset();
+        add(rm, SampleCatalog.SIGNAL, "signal");
+        IJ.run(a, "SNR (Two Acquisitions)...", "source=[Two images] first=aster_disk_acq1.tif second=aster_disk_acq2.tif "
+                + "frame_a=1 frame_b=2 channels=1 slices=[Current slice]");
+        settle();
+        capture(WindowManager.getWindow("SNR difference - aster_disk_acq1.tif"), "difference-table.png");
+
+        ImagePlus rep = open("aster_disk_repeats.tif");
+        rep.show();
+        IJ.run(rep, "SNR Map (Repeated Acquisitions)...", "channels=1 slices=[Current slice] maps rician");
+        settle();
+        ImagePlus map = WindowManager.getImage("aster_disk_repeats.tif SNR map");
+        IJ.run(map, "Set... ", "zoom=300");
+        IJ.run(map, "Fire", "");
+        map.setDisplayRange(0, 4);
+        map.updateAndDraw();
+        settle();
+        capture(map.getWindow(), "repeated-snr-map.png");
+        capture(WindowManager.getWindow("SNR repeated - aster_disk_repeats.tif"), "repeated-table.png");
+
+        ImagePlus low = open("aster_disk_low-snr.tif");
+        low.show();
+        IJ.run(low, "Rician Bias Correction...", "sigma=4 channels=1 method=[Koay-Basser (mean inversion)]");
+        settle();
+        ImagePlus corrected = WindowManager.getImage("aster_disk_low-snr.tif (bias-corrected)");
+        IJ.run(corrected, "Set... ", "zoom=200");
+        settle();
+        capture(corrected.getWindow(), "corrected.png");
+        System.exit(0);
+    }
+
+    private static ImagePlus open(String file) {
+        ImagePlus imp = IJ.openImage(Path.of("sample-images", file).toString());
+        if (imp == null) {
+            throw new IllegalStateException("cannot open sample " + file);
+        }
+        return imp;
+    }
+
+    private static void add(RoiManager rm, Rect r, String name) {
+        Roi roi = new Roi(r.x(), r.y(), r.w(), r.h());
+        roi.setName(name);
+        rm.addRoi(roi);
+    }
+
+    private static void settle() throws InterruptedException {
+        IJ.wait(600);
+        robot.waitForIdle();
+    }
+
+    private static void capture(Window w, String name) throws Exception {
+        if (w == null) {
+            throw new IllegalStateException("no window for " + name);
+        }
+        if (w instanceof ij.text.TextWindow) {
+            w.setBounds(0, 0, 1500, 170);
+            w.validate();
+            settle();
+        }
+        w.toFront();
+        settle();
+        Rectangle r = w.getBounds();
+        BufferedImage img = robot.createScreenCapture(r);
+        ImageIO.write(img, "png", new File(out.resolve(name).toString()));
+        System.out.println("wrote " + out.resolve(name) + " (" + r.width + "x" + r.height + ")");
+    }
+}

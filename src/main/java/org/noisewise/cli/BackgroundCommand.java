@@ -37,9 +37,8 @@ public class BackgroundCommand implements Callable<Integer> {
     @Mixin
     RegionOptions regions;
 
-    @Option(names = "--channels", paramLabel = "L", defaultValue = "1",
-            description = "Receive channels combined by root sum of squares (default: ${DEFAULT-VALUE}).")
-    int channels;
+    @Mixin
+    ChannelsOption channelOption;
 
     @Option(names = "--estimator", paramLabel = "NAME", defaultValue = "ml",
             description = "Sigma reported: ml (default), mean, sd or median. All four are always listed.")
@@ -53,9 +52,7 @@ public class BackgroundCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws InputException {
-        if (channels < 1) {
-            throw new InputException("--channels must be at least 1, was " + channels);
-        }
+        int channels = channelOption.get();
         SigmaEstimator est;
         try {
             est = SigmaEstimator.parse(estimator);

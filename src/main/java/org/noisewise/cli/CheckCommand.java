@@ -37,9 +37,8 @@ public class CheckCommand implements Callable<Integer> {
     @Mixin
     RegionOptions regions;
 
-    @Option(names = "--channels", paramLabel = "L", defaultValue = "1",
-            description = "Receive channels combined by root sum of squares (default: ${DEFAULT-VALUE}).")
-    int channels;
+    @Mixin
+    ChannelsOption channelOption;
 
     @Option(names = "--slice", paramLabel = "N", description = "1-based slice (default: every slice).")
     Integer slice;
@@ -56,9 +55,7 @@ public class CheckCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws InputException {
-        if (channels < 1) {
-            throw new InputException("--channels must be at least 1, was " + channels);
-        }
+        int channels = channelOption.get();
         if (plot != null) {
             ImageWriter.checkWritable(plot, force);
         }

@@ -10,6 +10,7 @@ import org.noisewise.io.CorrectedImages;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.io.ImageWriter;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
@@ -33,8 +34,8 @@ public class CorrectCommand implements Callable<Integer> {
             description = "Per-channel noise SD in the image's calibrated units (from background, difference or repeat).")
     double sigma;
 
-    @Option(names = "--channels", paramLabel = "L", defaultValue = "1", description = "Receive channels (default: ${DEFAULT-VALUE}).")
-    int channels;
+    @Mixin
+    ChannelsOption channelOption;
 
     @Option(names = "--method", paramLabel = "koay|power", defaultValue = "koay", description = "Correction (default: ${DEFAULT-VALUE}).")
     String method;
@@ -50,9 +51,7 @@ public class CorrectCommand implements Callable<Integer> {
         if (!(sigma > 0) || Double.isInfinite(sigma)) {
             throw new InputException("--sigma must be a positive number, was " + sigma);
         }
-        if (channels < 1) {
-            throw new InputException("--channels must be at least 1, was " + channels);
-        }
+        int channels = channelOption.get();
         RicianCorrection.Method m;
         try {
             m = RicianCorrection.Method.parse(method);

@@ -39,9 +39,8 @@ public class DifferenceCommand implements Callable<Integer> {
     @Mixin
     RegionOptions regions;
 
-    @Option(names = "--channels", paramLabel = "L", defaultValue = "1",
-            description = "Receive channels, for the low-SNR bias statement (default: ${DEFAULT-VALUE}).")
-    int channels;
+    @Mixin
+    ChannelsOption channelOption;
 
     @Option(names = "--slice", paramLabel = "N", description = "1-based slice (z) to measure (default: every slice).")
     Integer slice;
@@ -51,9 +50,7 @@ public class DifferenceCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws InputException {
-        if (channels < 1) {
-            throw new InputException("--channels must be at least 1, was " + channels);
-        }
+        int channels = channelOption.get();
         List<ResultRow> rows = new ArrayList<>();
         if (images.size() == 2) {
             if (frames != null) {

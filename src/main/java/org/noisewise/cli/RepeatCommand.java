@@ -42,9 +42,8 @@ public class RepeatCommand implements Callable<Integer> {
     @Option(names = "--rician", description = "Koay-Basser correction of the region summary.")
     boolean rician;
 
-    @Option(names = "--channels", paramLabel = "L", defaultValue = "1",
-            description = "Receive channels for the noise model (default: ${DEFAULT-VALUE}).")
-    int channels;
+    @Mixin
+    ChannelsOption channelOption;
 
     @Option(names = "--slice", paramLabel = "N", description = "1-based z slice of a hyperstack (default: every one).")
     Integer slice;
@@ -61,9 +60,7 @@ public class RepeatCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws InputException {
-        if (channels < 1) {
-            throw new InputException("--channels must be at least 1, was " + channels);
-        }
+        int channels = channelOption.get();
         ImagePlus imp = ImageFiles.open(image);
         int k = StackPlanes.repeatCount(imp);
         if (k < 2) {

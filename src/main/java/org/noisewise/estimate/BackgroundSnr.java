@@ -61,24 +61,14 @@ public final class BackgroundSnr {
                     + "clear of the object and of ghosts, as background");
         }
         double[] s = signal.values(pixels);
-        double[] bg = pooled(pixels, background);
+        double[] bg = Region.pooledMagnitudes(pixels, background);
         List<Warning> warnings = new ArrayList<>();
         checkOverlap(signal, background, warnings);
         SampleStats sStats = SampleStats.of(s);
-        if (bg.length < 2) {
-            throw new InputException("the background regions hold only " + bg.length
-                    + " pixel: draw larger background regions");
-        }
         SampleStats bStats = SampleStats.of(bg);
         if (bStats.sumSquares() == 0) {
             throw new InputException("every background pixel is zero: the background was masked or "
                     + "zero-filled, so it holds no noise to measure; acquire twice and use the difference method");
-        }
-        for (double v : bg) {
-            if (v < 0) {
-                throw new InputException("the background holds negative values, which a magnitude image "
-                        + "cannot have: this looks like a real, phase or subtracted image; use a magnitude image");
-            }
         }
         Map<SigmaEstimator, SigmaEstimate> est = BackgroundSigma.estimate(bg, options.channels());
         SigmaEstimate chosen = est.get(options.estimator());
@@ -110,22 +100,6 @@ public final class BackgroundSnr {
                 snr, snrCi, warnings);
     }
 
-    static double[] pooled(float[] pixels, List<Region> regions) throws InputException {
-        int total = 0;
-        List<double[]> parts = new ArrayList<>();
-        for (Region r : regions) {
-            double[] v = r.values(pixels);
-            parts.add(v);
-            total += v.length;
-        }
-        double[] out = new double[total];
-        int k = 0;
-        for (double[] p : parts) {
-            System.arraycopy(p, 0, out, k, p.length);
-            k += p.length;
-        }
-        return out;
-    }
 
     private static void checkOverlap(Region signal, List<Region> background, List<Warning> warnings) {
         Set<Integer> sig = new HashSet<>();

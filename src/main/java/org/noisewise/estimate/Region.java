@@ -92,6 +92,35 @@ public record Region(String name, int[] indices) {
         return v;
     }
 
+    /**
+     * The values of several regions pooled into one array, each checked as by {@link #values}; at
+     * least two pixels, none negative (a magnitude image has no negative values).
+     */
+    public static double[] pooledMagnitudes(float[] pixels, java.util.List<Region> regions) throws InputException {
+        int total = 0;
+        double[][] parts = new double[regions.size()][];
+        for (int i = 0; i < regions.size(); i++) {
+            parts[i] = regions.get(i).values(pixels);
+            total += parts[i].length;
+        }
+        if (total < 2) {
+            throw new InputException("the background regions hold " + total + " pixel: draw larger regions");
+        }
+        double[] out = new double[total];
+        int k = 0;
+        for (double[] part : parts) {
+            System.arraycopy(part, 0, out, k, part.length);
+            k += part.length;
+        }
+        for (double v : out) {
+            if (v < 0) {
+                throw new InputException("the background holds negative values, which a magnitude image cannot "
+                        + "have: this looks like a real, phase or subtracted image; use a magnitude image");
+            }
+        }
+        return out;
+    }
+
     @Override
     public boolean equals(Object o) {
         return o instanceof Region r && r.name.equals(name) && Arrays.equals(r.indices, indices);

@@ -12,30 +12,9 @@ public final class BackgroundValues {
     private BackgroundValues() {
     }
 
-    /** The regions' values, pooled; at least two pixels, none negative. */
+    /** The regions' values, pooled; see {@link Region#pooledMagnitudes}. */
     public static double[] pooled(float[] pixels, List<Region> regions) throws InputException {
-        int total = 0;
-        double[][] parts = new double[regions.size()][];
-        for (int i = 0; i < regions.size(); i++) {
-            parts[i] = regions.get(i).values(pixels);
-            total += parts[i].length;
-        }
-        if (total < 2) {
-            throw new InputException("the background regions hold " + total + " pixel: draw larger regions");
-        }
-        double[] out = new double[total];
-        int k = 0;
-        for (double[] p : parts) {
-            System.arraycopy(p, 0, out, k, p.length);
-            k += p.length;
-        }
-        for (double v : out) {
-            if (v < 0) {
-                throw new InputException("the background holds negative values, which a magnitude image cannot "
-                        + "have: this looks like a real, phase or subtracted image; use a magnitude image");
-            }
-        }
-        return out;
+        return Region.pooledMagnitudes(pixels, regions);
     }
 
     /**

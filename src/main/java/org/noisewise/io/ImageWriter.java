@@ -32,28 +32,23 @@ public final class ImageWriter {
         }
     }
 
-    /** Saves {@code imp} as TIFF at {@code out}. */
+    /** Saves {@code imp} as TIFF (a multi-page TIFF for stacks) at {@code out}. */
     public static void saveTiff(ImagePlus imp, Path out, boolean force) throws InputException {
-        checkWritable(out, force);
-        Path tmp = temporaryBeside(out);
-        try {
-            boolean ok = imp.getStackSize() > 1 ? new FileSaver(imp).saveAsTiffStack(tmp.toString())
-                    : new FileSaver(imp).saveAsTiff(tmp.toString());
-            if (!ok) {
-                throw new InputException("could not write '" + out + "': check the disk and permissions");
-            }
-            moveIntoPlace(tmp, out);
-        } finally {
-            deleteQuietly(tmp);
-        }
+        save(out, force, tmp -> imp.getStackSize() > 1 ? new FileSaver(imp).saveAsTiffStack(tmp)
+                : new FileSaver(imp).saveAsTiff(tmp));
     }
 
     /** Saves {@code imp} as PNG at {@code out}. */
     public static void savePng(ImagePlus imp, Path out, boolean force) throws InputException {
+        save(out, force, tmp -> new FileSaver(imp).saveAsPng(tmp));
+    }
+
+    private static void save(Path out, boolean force, java.util.function.Predicate<String> writer)
+            throws InputException {
         checkWritable(out, force);
         Path tmp = temporaryBeside(out);
         try {
-            if (!new FileSaver(imp).saveAsPng(tmp.toString())) {
+            if (!writer.test(tmp.toString())) {
                 throw new InputException("could not write '" + out + "': check the disk and permissions");
             }
             moveIntoPlace(tmp, out);

@@ -155,6 +155,7 @@ class MethodCommandsTest {
     @Test
     void backgroundCheckTablePlotAndPng() throws Exception {
         ImagePlus imp = TestImages.phantom("check", 100, 4, 1, 5);
+        String before = TestImages.checksum(imp);
         imp.show();
         add(new Roi(1, 1, 14, 14), "bg1");
         add(new Roi(80, 80, 14, 14), "bg2");
@@ -167,6 +168,7 @@ class MethodCommandsTest {
         ImagePlus decoded = IJ.openImage(png.toString());
         assertNotNull(decoded, "PNG does not decode");
         assertTrue(decoded.getWidth() > 200);
+        assertEquals(before, TestImages.checksum(imp));
     }
 
     @Test

@@ -5,11 +5,14 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
+import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.BackgroundSnr;
 import org.noisewise.estimate.BackgroundSnrResult;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.ImageFiles;
+import org.noisewise.io.ImageMetadata;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.report.BackgroundSnrRows;
 import org.noisewise.report.ResultRow;
@@ -47,12 +50,17 @@ public class BackgroundCommand implements Callable<Integer> {
     @Option(names = "--slice", paramLabel = "N", description = "1-based slice of a stack (default: every slice).")
     Integer slice;
 
+    @Option(names = "--phase", paramLabel = "ROW|COL",
+            description = "Phase-encoding direction (ROW: ghosts left/right; COL: above/below), for the ghosting "
+                    + "check; default: from DICOM 0018,1312, else unknown.")
+    String phase;
+
     @Option(names = "--json", description = "Write one JSON object (an array of objects for several slices).")
     boolean json;
 
     @Override
     public Integer call() throws InputException {
-        int channels = channelOption.get();
+        Integer channels = channelOption.get(true);
         SigmaEstimator est;
         try {
             est = SigmaEstimator.parse(estimator);
@@ -67,16 +75,26 @@ public class BackgroundCommand implements Callable<Integer> {
         if (reg.background().isEmpty()) {
             throw RegionOptions.noBackground();
         }
-        BackgroundSnr.Options options = new BackgroundSnr.Options(channels, est);
+        PhaseDirection dir = phase == null ? ImageMetadata.phaseDirection(imp) : parsePhase(phase);
+        BackgroundSnr.Options options = new BackgroundSnr.Options(channels, est, dir, BackgroundValues.storage(imp));
         String unit = ImagePlanes.valueUnit(imp);
         String title = image.getFileName().toString();
         List<ResultRow> rows = new ArrayList<>();
         for (int n : Slices.select(imp, slice)) {
-            BackgroundSnrResult r = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, n), reg.signal(),
+            BackgroundSnrResult r = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, n), imp.getWidth(), imp.getHeight(),
+                    reg.signal(),
                     reg.background(), options);
             rows.add(BackgroundSnrRows.row(title, n, unit, r));
         }
         Output.print(spec.commandLine().getOut(), rows, json);
         return 0;
+    }
+
+    static PhaseDirection parsePhase(String text) throws InputException {
+        try {
+            return PhaseDirection.parse(text);
+        } catch (IllegalArgumentException e) {
+            throw new InputException(e.getMessage());
+        }
     }
 }

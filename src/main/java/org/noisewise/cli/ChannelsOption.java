@@ -1,20 +1,40 @@
 package org.noisewise.cli;
 
+import java.util.Locale;
 import org.noisewise.estimate.InputException;
 import picocli.CommandLine.Option;
 
-/** {@code --channels L}, shared by the commands. */
+/** {@code --channels L|auto}, shared by the commands. */
 public class ChannelsOption {
 
-    @Option(names = "--channels", paramLabel = "L", defaultValue = "1",
-            description = "Receive channels combined by root sum of squares (default: ${DEFAULT-VALUE}).")
-    int channels;
+    @Option(names = "--channels", paramLabel = "L|auto", defaultValue = "1",
+            description = "Receive channels combined by root sum of squares, or auto to estimate the effective "
+                    + "count from the background (default: ${DEFAULT-VALUE}).")
+    String channels;
 
-    /** The channel count, checked. */
-    int get() throws InputException {
-        if (channels < 1) {
-            throw new InputException("--channels must be at least 1, was " + channels);
+    /** The stated channel count, or {@code null} for "auto" (only where {@code autoAllowed}). */
+    Integer get(boolean autoAllowed) throws InputException {
+        String t = channels.trim().toLowerCase(Locale.ROOT);
+        if (t.equals("auto")) {
+            if (!autoAllowed) {
+                throw new InputException("--channels auto needs background regions: give a whole number here");
+            }
+            return null;
         }
-        return channels;
+        int l;
+        try {
+            l = Integer.parseInt(t);
+        } catch (NumberFormatException e) {
+            throw new InputException("--channels must be a whole number of at least 1, or auto; was '" + channels + "'");
+        }
+        if (l < 1) {
+            throw new InputException("--channels must be at least 1, was " + l);
+        }
+        return l;
+    }
+
+    /** A stated channel count ("auto" not allowed). */
+    int get() throws InputException {
+        return get(false);
     }
 }

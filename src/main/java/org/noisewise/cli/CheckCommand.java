@@ -5,11 +5,12 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
-import org.noisewise.diagnose.BackgroundCheck;
+import org.noisewise.diagnose.BackgroundDiagnostics;
 import org.noisewise.estimate.InputException;
 import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.HistogramPlot;
 import org.noisewise.io.ImageFiles;
+import org.noisewise.io.ImageMetadata;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.ImageWriter;
 import org.noisewise.report.MethodRows;
@@ -50,12 +51,16 @@ public class CheckCommand implements Callable<Integer> {
     @Option(names = "--force", description = "Replace an output file that exists.")
     boolean force;
 
+    @Option(names = "--phase", paramLabel = "ROW|COL",
+            description = "Phase-encoding direction for the ghosting check (default: DICOM 0018,1312, else unknown).")
+    String phase;
+
     @Option(names = "--json", description = "Write JSON (an object, or an array for several slices).")
     boolean json;
 
     @Override
     public Integer call() throws InputException {
-        int channels = channelOption.get();
+        Integer channels = channelOption.get(true);
         if (plot != null) {
             ImageWriter.checkWritable(plot, force);
         }
@@ -65,11 +70,16 @@ public class CheckCommand implements Callable<Integer> {
             throw RegionOptions.noBackground();
         }
         String unit = ImagePlanes.valueUnit(imp);
+        BackgroundDiagnostics.Options options = new BackgroundDiagnostics.Options(channels,
+                phase == null ? ImageMetadata.phaseDirection(imp) : BackgroundCommand.parsePhase(phase),
+                BackgroundValues.storage(imp));
         List<ResultRow> rows = new ArrayList<>();
         boolean plotted = false;
         for (int n : Slices.select(imp, slice)) {
-            double[] values = BackgroundValues.pooled(ImagePlanes.calibratedPixels(imp, n), reg.background());
-            BackgroundCheck.Result r = BackgroundCheck.check(values, channels, BackgroundValues.storage(imp));
+            float[] px = ImagePlanes.calibratedPixels(imp, n);
+            double[] values = BackgroundValues.pooled(px, reg.background());
+            BackgroundDiagnostics.Diagnosis r = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(),
+                    reg.signal(), reg.background(), options);
             rows.add(MethodRows.check(image.getFileName().toString(), n, unit, r));
             if (plot != null && !plotted) {
                 ImageWriter.savePng(HistogramPlot.build("Background histogram - " + image.getFileName(), values, r, unit)

@@ -135,7 +135,7 @@ public class DemoCommand implements Callable<Integer> {
         float[] px = ImagePlanes.calibratedPixels(open(s), 1);
         Region signal = region("signal", s.signal());
         List<Region> bg = backgroundRegions(s);
-        BackgroundSnrResult r = BackgroundSnr.analyze(px, signal, bg,
+        BackgroundSnrResult r = BackgroundSnr.analyze(px, SampleCatalog.SIZE, SampleCatalog.SIZE, signal, bg,
                 new BackgroundSnr.Options(s.channels(), SigmaEstimator.ML));
         SigmaEstimate sig = r.sigma();
         title(s);
@@ -145,10 +145,17 @@ public class DemoCommand implements Callable<Integer> {
         line("hand method S / SD(air)", s.trueSnr(), hand,
                 String.format(Locale.ROOT, "(%+.0f%% off)", 100 * (hand / s.trueSnr() - 1)));
         if (s.channels() > 1) {
-            BackgroundSnrResult wrong = BackgroundSnr.analyze(px, signal, bg,
+            BackgroundSnrResult wrong = BackgroundSnr.analyze(px, SampleCatalog.SIZE, SampleCatalog.SIZE, signal, bg,
                     new BackgroundSnr.Options(1, SigmaEstimator.MEAN));
             line("sigma if L = 1 were assumed", s.sigma(), wrong.sigma().sigma(), String.format(Locale.ROOT,
                     "(%.2fx the truth: the channel count matters)", wrong.sigma().sigma() / s.sigma()));
+            out.println("    with L = 1 assumed, the verdict is " + wrong.verdict().key() + ": "
+                    + wrong.warnings().stream().filter(w -> w.code().startsWith("channels"))
+                    .map(Warning::message).findFirst().orElse("(no channel warning)"));
+            BackgroundSnrResult auto = BackgroundSnr.analyze(px, SampleCatalog.SIZE, SampleCatalog.SIZE, signal, bg,
+                    new BackgroundSnr.Options(null, SigmaEstimator.ML, null, null));
+            var ce = auto.diagnosis().channelEstimate();
+            line("channels estimated (--channels auto)", s.channels(), ce.channels(), ci(ce.low(), ce.high()));
         }
         warnings(r.warnings());
     }
@@ -190,18 +197,17 @@ public class DemoCommand implements Callable<Integer> {
         double[] values = BackgroundValues.pooled(ImagePlanes.calibratedPixels(imp, 1), backgroundRegions(s));
         BackgroundCheck.Result r = BackgroundCheck.check(values, s.channels(), BackgroundValues.storage(imp));
         out.printf(Locale.ROOT, "%n%s  (%s)%n", s.file(), s.description());
-        out.printf(Locale.ROOT, "  verdict: %s   (L = %d, fit p = %s, estimator agreement p = %s, zeros %.1f%%)%n",
+        out.printf(Locale.ROOT, "  background check verdict: %s   (L = %d, fit p = %s, estimator agreement p = %s, zeros %.1f%%)%n",
                 r.verdict().key(), s.channels(), fmt(r.fitP()), fmt(r.agreementP()), 100 * r.zeroFraction());
         for (Warning w : r.reasons()) {
             out.println("  reason [" + w.code() + "]: " + w.message());
         }
         if (s.use() == Use.MASKED) {
-            try {
-                BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, 1), region("signal", s.signal()),
-                        backgroundRegions(s), new BackgroundSnr.Options(s.channels(), SigmaEstimator.ML));
-            } catch (InputException e) {
-                out.println("  background method refused: " + e.getMessage());
-            }
+            BackgroundSnrResult r2 = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, 1), SampleCatalog.SIZE,
+                    SampleCatalog.SIZE, region("signal", s.signal()), backgroundRegions(s),
+                    new BackgroundSnr.Options(s.channels(), SigmaEstimator.ML));
+            out.println("  background SNR: " + (Double.isNaN(r2.snr()) ? "not reported" : fmt(r2.snr()))
+                    + " (verdict " + r2.verdict().key() + ")");
         }
     }
 }

@@ -38,6 +38,9 @@ public final class BackgroundCheck {
 
     /** Bootstrap samples for the p-values. */
     public static final int BOOTSTRAP = 199;
+    /** Sequential stopping: replicates per batch, and exceedances after which the p-value is clearly large. */
+    static final int BATCH = 20;
+    static final int STOP_AFTER = 10;
     /** p-values below this count as evidence against the model. */
     public static final double ALPHA = 0.01;
     /** More than this fraction of exact zeros: masked background (common practice). */
@@ -79,7 +82,16 @@ public final class BackgroundCheck {
     }
 
     public static Result check(double[] background, int channels, Storage storage) {
+        return check(background, channels, storage, background.length);
+    }
+
+    /**
+     * The check for correlated pixels: the bootstrap simulates {@code effectiveCount} independent
+     * pixels, which matches the sampling spread of the statistics on the correlated sample.
+     */
+    public static Result check(double[] background, int channels, Storage storage, double effectiveCount) {
         int n = background.length;
+        int simulated = (int) Math.max(10, Math.min(n, Math.round(effectiveCount)));
         if (n < 2) {
             throw new IllegalArgumentException("need at least 2 background pixels");
         }
@@ -112,26 +124,38 @@ public final class BackgroundCheck {
         double dis = disagreement(est);
         // Parametric bootstrap, one independent seeded stream per replicate so the result does not
         // depend on how the replicates are spread over the cores.
+        // Parametric bootstrap with sequential stopping (Besag and Clifford 1991, Biometrika 78:301):
+        // replicates run in batches, one seeded stream each so the result does not depend on how they
+        // are spread over the cores, until both statistics have been reached STOP_AFTER times (the
+        // p-value is then clearly large) or BOOTSTRAP replicates are done.
         SplittableRandom master = new SplittableRandom(seedOf(sorted));
-        SplittableRandom[] streams = new SplittableRandom[BOOTSTRAP];
-        for (int b = 0; b < BOOTSTRAP; b++) {
-            streams[b] = master.split();
-        }
-        int[] exceed = IntStream.range(0, BOOTSTRAP).parallel().mapToObj(b -> {
-            SplittableRandom rng = streams[b];
-            double[] sim = new double[n];
-            for (int i = 0; i < n; i++) {
-                sim[i] = Phantoms.magnitude(rng, 0.0, sigma, channels);
+        int ksExceed = 0;
+        int disExceed = 0;
+        int done = 0;
+        while (done < BOOTSTRAP && (ksExceed < STOP_AFTER || disExceed < STOP_AFTER)) {
+            int batch = Math.min(BATCH, BOOTSTRAP - done);
+            SplittableRandom[] streams = new SplittableRandom[batch];
+            for (int b = 0; b < batch; b++) {
+                streams[b] = master.split();
             }
-            Map<SigmaEstimator, SigmaEstimate> e = BackgroundSigma.estimate(sim, channels);
-            Arrays.sort(sim);
-            return new int[] {ksDistance(sim, channels, e.get(SigmaEstimator.ML).sigma()) >= ks ? 1 : 0,
-                    disagreement(e) >= dis ? 1 : 0};
-        }).reduce(new int[2], (x, y) -> new int[] {x[0] + y[0], x[1] + y[1]});
-        int ksExceed = exceed[0];
-        int disExceed = exceed[1];
-        double fitP = (1.0 + ksExceed) / (BOOTSTRAP + 1.0);
-        double agreementP = (1.0 + disExceed) / (BOOTSTRAP + 1.0);
+            int[] exceed = IntStream.range(0, batch).parallel().mapToObj(b -> {
+                SplittableRandom rng = streams[b];
+                double[] sim = new double[simulated];
+                for (int i = 0; i < simulated; i++) {
+                    sim[i] = Phantoms.magnitude(rng, 0.0, sigma, channels);
+                }
+                Map<SigmaEstimator, SigmaEstimate> e = BackgroundSigma.estimate(sim, channels);
+                Arrays.sort(sim);
+                return new int[] {ksDistance(sim, channels, e.get(SigmaEstimator.ML).sigma()) >= ks ? 1 : 0,
+                        disagreement(e) >= dis ? 1 : 0};
+            }).reduce(new int[2], (x, y) -> new int[] {x[0] + y[0], x[1] + y[1]});
+            ksExceed += exceed[0];
+            disExceed += exceed[1];
+            done += batch;
+        }
+        boolean complete = done >= BOOTSTRAP;
+        double fitP = complete ? (1.0 + ksExceed) / (BOOTSTRAP + 1.0) : (double) ksExceed / done;
+        double agreementP = complete ? (1.0 + disExceed) / (BOOTSTRAP + 1.0) : (double) disExceed / done;
 
         List<Warning> reasons = new ArrayList<>();
         Verdict v = Verdict.VALID;

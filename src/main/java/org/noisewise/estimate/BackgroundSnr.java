@@ -6,6 +6,10 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
+import org.noisewise.diagnose.BackgroundCheck;
+import org.noisewise.diagnose.BackgroundDiagnostics;
+import org.noisewise.diagnose.PhaseDirection;
+import org.noisewise.diagnose.Verdict;
 
 /**
  * The single-image (background) SNR method: {@code SNR = S / sigma}, with {@code S} the signal
@@ -15,28 +19,39 @@ import java.util.Set;
  *
  * <p>Only valid when the background holds unprocessed magnitude noise: not masked or zero-filled,
  * free of ghosts, from a sum-of-squares combination of equal, uncorrelated channels, without
- * parallel imaging or filtering (Dietrich et al. 2007, JMRI 26:375). The warnings say when the
- * data contradict that.
+ * parallel imaging or filtering (Dietrich et al. 2007, JMRI 26:375). Every measurement is judged by
+ * {@link BackgroundDiagnostics}; intervals use the effective pixel count of correlated noise, and an
+ * {@code invalid} verdict withholds the SNR.
  */
 public final class BackgroundSnr {
 
     /** Below this many background pixels the sigma estimate is imprecise (common practice). */
     public static final int MIN_BACKGROUND_PIXELS = 100;
-    /** Above this fraction of exact zeros the background looks masked (common practice). */
-    public static final double MASKED_ZERO_FRACTION = 0.01;
 
     private BackgroundSnr() {
     }
 
-    /** Options of the method. */
-    public record Options(int channels, SigmaEstimator estimator) {
+    /**
+     * Options of the method.
+     *
+     * @param channels  stated channel count L, or {@code null} to estimate it ("auto")
+     * @param estimator the estimator reported as sigma
+     * @param phase     phase-encoding direction, for the ghosting check
+     * @param storage   how values were stored, for the quantisation and clipping checks
+     */
+    public record Options(Integer channels, SigmaEstimator estimator, PhaseDirection phase,
+                          BackgroundCheck.Storage storage) {
         public Options {
-            if (channels < 1) {
+            if (channels != null && channels < 1) {
                 throw new IllegalArgumentException("channel count must be >= 1, was " + channels);
             }
-            if (estimator == null) {
-                estimator = SigmaEstimator.ML;
-            }
+            estimator = estimator == null ? SigmaEstimator.ML : estimator;
+            phase = phase == null ? PhaseDirection.UNKNOWN : phase;
+            storage = storage == null ? BackgroundCheck.Storage.floatingPoint() : storage;
+        }
+
+        public Options(int channels, SigmaEstimator estimator) {
+            this(Integer.valueOf(channels), estimator, PhaseDirection.UNKNOWN, BackgroundCheck.Storage.floatingPoint());
         }
 
         public static Options defaults() {
@@ -48,11 +63,13 @@ public final class BackgroundSnr {
      * Measures one plane.
      *
      * @param pixels     the plane's calibrated values, row by row
+     * @param width      plane width (for the spatial noise correlation)
+     * @param height     plane height
      * @param signal     the signal region
      * @param background one or more background regions (pooled)
      */
-    public static BackgroundSnrResult analyze(float[] pixels, Region signal, List<Region> background,
-                                              Options options) throws InputException {
+    public static BackgroundSnrResult analyze(float[] pixels, int width, int height, Region signal,
+                                              List<Region> background, Options options) throws InputException {
         if (signal == null) {
             throw new InputException("no signal region: mark one region as signal");
         }
@@ -60,46 +77,42 @@ public final class BackgroundSnr {
             throw new InputException("no background region: mark at least one region in air, "
                     + "clear of the object and of ghosts, as background");
         }
+        if ((long) width * height != pixels.length) {
+            throw new IllegalArgumentException("plane is " + pixels.length + " pixels, not " + width + "x" + height);
+        }
         double[] s = signal.values(pixels);
         double[] bg = Region.pooledMagnitudes(pixels, background);
         List<Warning> warnings = new ArrayList<>();
         checkOverlap(signal, background, warnings);
         SampleStats sStats = SampleStats.of(s);
         SampleStats bStats = SampleStats.of(bg);
-        if (bStats.sumSquares() == 0) {
-            throw new InputException("every background pixel is zero: the background was masked or "
-                    + "zero-filled, so it holds no noise to measure; acquire twice and use the difference method");
-        }
-        Map<SigmaEstimator, SigmaEstimate> est = BackgroundSigma.estimate(bg, options.channels());
+        BackgroundDiagnostics.Diagnosis diag = BackgroundDiagnostics.diagnose(pixels, width, height, signal, background,
+                new BackgroundDiagnostics.Options(options.channels(), options.phase(), options.storage()));
+        int channels = diag.channels();
+        Map<SigmaEstimator, SigmaEstimate> est = BackgroundSigma.estimate(bg, channels, diag.effectivePixels());
         SigmaEstimate chosen = est.get(options.estimator());
+        warnings.addAll(diag.reasons());
         if (bg.length < MIN_BACKGROUND_PIXELS) {
             warnings.add(new Warning("few_background_pixels", String.format(Locale.ROOT,
                     "only %d background pixels (fewer than %d): sigma is imprecise; draw larger "
                             + "background regions", bg.length, MIN_BACKGROUND_PIXELS)));
         }
-        int zeros = 0;
-        for (double v : bg) {
-            if (v == 0) {
-                zeros++;
+        double snr = Double.NaN;
+        Interval snrCi = new Interval(Double.NaN, Double.NaN);
+        if (diag.verdict() == Verdict.INVALID || !(chosen.sigma() > 0)) {
+            warnings.add(new Warning("no_snr", "no SNR is reported: the background cannot give a trustworthy sigma "
+                    + "here. Acquire the scan twice and use the difference method, or repeat it and use the "
+                    + "repeated-acquisition method."));
+        } else {
+            snr = sStats.mean() / chosen.sigma();
+            snrCi = SnrMath.snrInterval(sStats.mean(), sStats.standardError(), chosen.sigma(), chosen.ci95());
+            Warning low = SnrMath.lowSnrWarning(snr, channels);
+            if (low != null) {
+                warnings.add(low);
             }
         }
-        if (zeros > MASKED_ZERO_FRACTION * bg.length) {
-            warnings.add(new Warning("masked_background", String.format(Locale.ROOT,
-                    "%.1f%% of background pixels are exactly zero: the background looks masked or "
-                            + "zero-filled, so background sigma is too low; use the difference method",
-                    100.0 * zeros / bg.length)));
-        }
-        double snr = sStats.mean() / chosen.sigma();
-        Interval snrCi = SnrMath.snrInterval(sStats.mean(), sStats.standardError(), chosen.sigma(),
-                chosen.ci95());
-        Warning low = SnrMath.lowSnrWarning(snr, options.channels());
-        if (low != null) {
-            warnings.add(low);
-        }
-        return new BackgroundSnrResult(options.channels(), options.estimator(), est, sStats, bStats,
-                snr, snrCi, warnings);
+        return new BackgroundSnrResult(channels, options.estimator(), est, sStats, bStats, snr, snrCi, diag, warnings);
     }
-
 
     private static void checkOverlap(Region signal, List<Region> background, List<Warning> warnings) {
         Set<Integer> sig = new HashSet<>();

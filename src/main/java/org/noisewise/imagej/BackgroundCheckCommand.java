@@ -10,11 +10,14 @@ import ij.measure.ResultsTable;
 import ij.plugin.PlugIn;
 import java.nio.file.Path;
 import java.util.List;
-import org.noisewise.diagnose.BackgroundCheck;
+import java.util.Arrays;
+import org.noisewise.diagnose.BackgroundDiagnostics;
+import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.HistogramPlot;
+import org.noisewise.io.ImageMetadata;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.ImageWriter;
 import org.noisewise.report.MethodRows;
@@ -24,7 +27,7 @@ import org.noisewise.report.MethodRows;
  * noise? Histogram with the fitted Rayleigh / chi(2L) curve and a Gaussian, bootstrap goodness of
  * fit, agreement of the four sigma estimators, zeros and clipping, and a verdict with reasons.
  *
- * <p>Macro keys: {@code channels} (L), {@code plot} (show the histogram plot), {@code png} (a file
+ * <p>Macro keys: {@code channels} (L or auto), {@code phase} (as in the background command), {@code plot} (show the histogram plot), {@code png} (a file
  * to save the plot to, optional), {@code region_N} roles. Background regions: ROI Manager regions
  * named {@code background/bg/air/noise...}, else every ROI Manager region when none has a role, else
  * the selection.
@@ -34,7 +37,7 @@ public class BackgroundCheckCommand implements PlugIn {
     static final String TITLE = "Background Noise Check";
 
     /** What one run produced. */
-    public record Output(BackgroundCheck.Result result, ResultsTable table, Plot plot) {
+    public record Output(BackgroundDiagnostics.Diagnosis result, ResultsTable table, Plot plot) {
     }
 
     @Override
@@ -46,7 +49,9 @@ public class BackgroundCheckCommand implements PlugIn {
         }
         RegionRoles regions = RegionRoles.of(imp);
         GenericDialog gd = new GenericDialog(TITLE);
-        gd.addNumericField("Channels (L):", 1, 0);
+        gd.addStringField("Channels (L or auto):", "1", 6);
+        gd.addChoice("Phase encoding:", BackgroundSnrCommand.PHASES,
+                BackgroundSnrCommand.phaseLabel(ImageMetadata.phaseDirection(imp)));
         gd.addCheckbox("Plot histogram and fit", true);
         gd.addStringField("PNG file for the plot (optional):", "", 30);
         regions.addFields(gd);
@@ -57,15 +62,15 @@ public class BackgroundCheckCommand implements PlugIn {
         if (gd.wasCanceled()) {
             return;
         }
-        int channels = (int) Math.round(gd.getNextNumber());
+        String channelText = gd.getNextString();
+        PhaseDirection phase = PhaseDirection.values()[Arrays.asList(BackgroundSnrCommand.PHASES).indexOf(gd.getNextChoice())];
         boolean plot = gd.getNextBoolean();
         String png = gd.getNextString().trim();
         regions.readFields(gd);
         try {
-            if (gd.invalidNumber() || channels < 1) {
-                throw new InputException("the channel count must be a whole number of at least 1");
-            }
-            Output out = process(imp, imp.getCurrentSlice(), regions.backgroundRegions(), channels);
+            Integer channels = BackgroundSnrCommand.parseChannels(channelText);
+            Output out = process(imp, imp.getCurrentSlice(), regions.signalRegions(), regions.backgroundRegions(),
+                    new BackgroundDiagnostics.Options(channels, phase, BackgroundValues.storage(imp)));
             out.table().show(tableTitle(imp));
             if (!png.isEmpty()) {
                 ImageWriter.savePng(out.plot().getImagePlus(), Path.of(png), true);
@@ -82,16 +87,30 @@ public class BackgroundCheckCommand implements PlugIn {
         return "Background check - " + imp.getTitle();
     }
 
-    /** Checks slice {@code slice} (1-based). Never modifies {@code imp}. */
+    /** Checks slice {@code slice} (1-based) with a stated channel count. Never modifies {@code imp}. */
     public static Output process(ImagePlus imp, int slice, List<Roi> background, int channels) throws InputException {
+        return process(imp, slice, List.of(), background,
+                new BackgroundDiagnostics.Options(channels, PhaseDirection.UNKNOWN, BackgroundValues.storage(imp)));
+    }
+
+    /**
+     * Checks slice {@code slice} (1-based). The signal region, when given, tells which background
+     * regions lie left/right of the object and which above/below it. Never modifies {@code imp}.
+     */
+    public static Output process(ImagePlus imp, int slice, List<Roi> signal, List<Roi> background,
+                                 BackgroundDiagnostics.Options options) throws InputException {
         ImagePlanes.requireGrayscale(imp);
         if (background == null || background.isEmpty()) {
             throw new InputException("no background region: add regions in air to the ROI Manager and name them "
                     + "'background', 'bg', 'air' or 'noise'");
         }
         List<Region> regions = RegionRoles.toRegions(background, "background", imp.getWidth(), imp.getHeight());
-        double[] values = BackgroundValues.pooled(ImagePlanes.calibratedPixels(imp, slice), regions);
-        BackgroundCheck.Result r = BackgroundCheck.check(values, channels, BackgroundValues.storage(imp));
+        float[] px = ImagePlanes.calibratedPixels(imp, slice);
+        double[] values = BackgroundValues.pooled(px, regions);
+        Region sig = signal == null || signal.isEmpty() || background.contains(signal.get(0)) ? null
+                : RegionRoles.toRegions(signal.subList(0, 1), "signal", imp.getWidth(), imp.getHeight()).get(0);
+        BackgroundDiagnostics.Diagnosis r = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(), sig,
+                regions, options);
         String unit = ImagePlanes.valueUnit(imp);
         ResultsTable rt = Tables.toResultsTable(List.of(MethodRows.check(imp.getTitle(), slice, unit, r)));
         Plot plot = HistogramPlot.build("Background histogram - " + imp.getTitle(), values, r, unit);

@@ -10,11 +10,14 @@ import ij.plugin.PlugIn;
 import ij.plugin.frame.RoiManager;
 import java.util.ArrayList;
 import java.util.List;
+import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.BackgroundSnr;
 import org.noisewise.estimate.BackgroundSnrResult;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.io.BackgroundValues;
+import org.noisewise.io.ImageMetadata;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.RoiRegions;
 import org.noisewise.io.RoleNames;
@@ -25,9 +28,10 @@ import org.noisewise.report.ResultRow;
  * {@code Plugins>Noisewise>SNR (Background Regions)...}: the single-image SNR with the background
  * sigma corrected for the Rayleigh / chi(2L) distribution of magnitude noise.
  *
- * <p>Macro keys: {@code channels} (L), {@code estimator} ([Maximum likelihood], [Mean-based],
+ * <p>Macro keys: {@code channels} (L, or {@code auto} to estimate the effective count), {@code estimator} ([Maximum likelihood], [Mean-based],
  * [SD-based], [Median-based]), {@code slices} ([Current slice] or [All slices]), {@code roles}
- * ([Region names] or [Selection is signal]), and, with region names, {@code region_1},
+ * ([Region names] or [Selection is signal]), {@code phase} ([Rows (ghosts left/right)],
+ * [Columns (ghosts above/below)] or [Unknown]; default from DICOM 0018,1312), and, with region names, {@code region_1},
  * {@code region_2}, ... (signal, background or ignore) to override the role a name implies.
  * Example: {@code run("SNR (Background Regions)...", "channels=1 estimator=[Maximum likelihood]
  * slices=[Current slice] roles=[Region names]");}
@@ -58,12 +62,13 @@ public class BackgroundSnrCommand implements PlugIn {
         Roi selection = imp.getRoi();
 
         GenericDialog gd = new GenericDialog(TITLE);
-        gd.addNumericField("Channels (L):", 1, 0);
+        gd.addStringField("Channels (L or auto):", "1", 6);
         gd.addChoice("Estimator:", SigmaEstimator.labels(), SigmaEstimator.ML.label());
         gd.addChoice("Slices:", new String[] {CURRENT, ALL}, CURRENT);
         boolean named = hasSignalName(managed);
         String defaultRoles = !named && selection != null && selection.isArea() ? BY_SELECTION : BY_NAME;
         gd.addChoice("Roles from:", new String[] {BY_NAME, BY_SELECTION}, defaultRoles);
+        gd.addChoice("Phase encoding:", PHASES, phaseLabel(ImageMetadata.phaseDirection(imp)));
         for (int i = 0; i < managed.length; i++) {
             String name = RoiRegions.nameOf(managed[i], i);
             gd.addChoice("Region_" + (i + 1) + " (" + name + "):", RoleNames.labels(),
@@ -74,18 +79,17 @@ public class BackgroundSnrCommand implements PlugIn {
         if (gd.wasCanceled()) {
             return;
         }
-        int channels = (int) Math.round(gd.getNextNumber());
+        String channelText = gd.getNextString();
         SigmaEstimator estimator = SigmaEstimator.parse(gd.getNextChoice());
         boolean all = ALL.equals(gd.getNextChoice());
         boolean bySelection = BY_SELECTION.equals(gd.getNextChoice());
+        PhaseDirection phase = PhaseDirection.values()[java.util.Arrays.asList(PHASES).indexOf(gd.getNextChoice())];
         RoleNames[] roles = new RoleNames[managed.length];
         for (int i = 0; i < managed.length; i++) {
             roles[i] = RoleNames.fromLabel(gd.getNextChoice());
         }
         try {
-            if (gd.invalidNumber() || channels < 1) {
-                throw new InputException("the channel count must be a whole number of at least 1");
-            }
+            Integer channels = parseChannels(channelText);
             Roi signal;
             List<Roi> background = new ArrayList<>();
             if (bySelection) {
@@ -110,11 +114,34 @@ public class BackgroundSnrCommand implements PlugIn {
                 }
             }
             ResultsTable rt = process(imp, signal, background,
-                    new BackgroundSnr.Options(channels, estimator), all);
+                    new BackgroundSnr.Options(channels, estimator, phase, BackgroundValues.storage(imp)), all);
             rt.show(tableTitle(imp));
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
         }
+    }
+
+    static final String[] PHASES = {"Rows (ghosts left/right)", "Columns (ghosts above/below)", "Unknown"};
+
+    static String phaseLabel(PhaseDirection d) {
+        return PHASES[d.ordinal()];
+    }
+
+    /** "auto" gives {@code null} (estimate the channel count); otherwise a whole number of at least 1. */
+    static Integer parseChannels(String text) throws InputException {
+        String t = text.trim();
+        if (t.equalsIgnoreCase("auto")) {
+            return null;
+        }
+        try {
+            int l = Integer.parseInt(t);
+            if (l >= 1) {
+                return l;
+            }
+        } catch (NumberFormatException e) {
+            // fall through to the message
+        }
+        throw new InputException("channels must be a whole number of at least 1, or auto; was '" + text + "'");
     }
 
     /** The table's window title for this image. */
@@ -162,7 +189,7 @@ public class BackgroundSnrCommand implements PlugIn {
                 IJ.showProgress(n - first, last - first + 1);
             }
             float[] px = ImagePlanes.calibratedPixels(imp, n);
-            BackgroundSnrResult r = BackgroundSnr.analyze(px, sig, bg, options);
+            BackgroundSnrResult r = BackgroundSnr.analyze(px, w, h, sig, bg, options);
             rows.add(BackgroundSnrRows.row(imp.getTitle(), n, unit, r));
         }
         IJ.showProgress(1.0);

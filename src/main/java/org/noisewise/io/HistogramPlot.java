@@ -6,6 +6,7 @@ import java.util.Locale;
 import org.apache.commons.math3.distribution.NakagamiDistribution;
 import org.apache.commons.math3.distribution.NormalDistribution;
 import org.noisewise.diagnose.BackgroundCheck;
+import org.noisewise.diagnose.BackgroundDiagnostics;
 
 /**
  * The background histogram (as a density) with the fitted Rayleigh / chi(2L) curve and, for
@@ -16,7 +17,8 @@ public final class HistogramPlot {
     private HistogramPlot() {
     }
 
-    public static Plot build(String title, double[] values, BackgroundCheck.Result r, String unit) {
+    public static Plot build(String title, double[] values, BackgroundDiagnostics.Diagnosis d, String unit) {
+        BackgroundCheck.Result r = d.check();
         double max = 0;
         for (double v : values) {
             max = Math.max(max, v);
@@ -59,7 +61,7 @@ public final class HistogramPlot {
         plot.setLegend("histogram\t" + BackgroundCheck.modelName(r.channels()) + String.format(Locale.ROOT,
                 ", sigma = %.4g (ML)", sigma) + "\tGaussian, same mean and SD", Plot.TOP_RIGHT | Plot.AUTO_POSITION);
         plot.addLabel(0.5, 0.45, String.format(Locale.ROOT, "verdict: %s   fit p = %.3f   agreement p = %.3f",
-                r.verdict().key(), r.fitP(), r.agreementP()));
+                d.verdict().key(), r.fitP(), r.agreementP()));
         plot.setLimits(0, hi, 0, Double.NaN);
         return plot;
     }

@@ -1,6 +1,7 @@
 package org.noisewise.report;
 
 import org.noisewise.diagnose.BackgroundCheck;
+import org.noisewise.diagnose.BackgroundDiagnostics;
 import org.noisewise.estimate.DifferenceSnrResult;
 import org.noisewise.estimate.KoayBasser;
 import org.noisewise.estimate.RepeatedSnrResult;
@@ -65,19 +66,20 @@ public final class MethodRows {
     }
 
     /** The background noise check. */
-    public static ResultRow check(String image, int slice, String unit, BackgroundCheck.Result r) {
+    public static ResultRow check(String image, int slice, String unit, BackgroundDiagnostics.Diagnosis d) {
         String u = u(unit);
+        BackgroundCheck.Result r = d.check();
         ResultRow row = new ResultRow()
                 .add("image", "Image", image)
                 .add("slice", "Slice", slice)
                 .add("method", "Method", "check")
-                .add("verdict", "Verdict", r.verdict().key())
-                .add("channels", "Channels", r.channels())
-                .add("model", "Model", BackgroundCheck.modelName(r.channels()))
+                .add("verdict", "Verdict", d.verdict().key())
+                .add("model", "Model", BackgroundCheck.modelName(d.channels()))
                 .add("sigma", "Sigma" + u, r.sigma())
                 .add("sigma_ci95[0]", "Sigma 95% low" + u, r.estimates().get(SigmaEstimator.ML).ci95().low())
-                .add("sigma_ci95[1]", "Sigma 95% high" + u, r.estimates().get(SigmaEstimator.ML).ci95().high())
-                .add("pixels.background", "Background pixels", r.pixels())
+                .add("sigma_ci95[1]", "Sigma 95% high" + u, r.estimates().get(SigmaEstimator.ML).ci95().high());
+        BackgroundSnrRows.addDiagnosis(row, d);
+        row.add("pixels.background", "Background pixels", r.pixels())
                 .add("background_mean", "Background mean" + u, r.stats().mean())
                 .add("background_sd", "Background SD" + u, r.stats().sd());
         for (SigmaEstimator e : SigmaEstimator.values()) {
@@ -88,8 +90,9 @@ public final class MethodRows {
                 .add("agreement_p", "Agreement p", r.agreementP())
                 .add("ks_distance", "KS distance", r.ksDistance())
                 .add("fit_p", "Fit p (bootstrap)", r.fitP())
+                .add("region_agreement_p", "Region agreement p", d.regionTest().p())
                 .add("zero_fraction", "Zero fraction", r.zeroFraction())
                 .add("clipped_fraction", "Clipped fraction", r.clippedFraction())
-                .add("warnings", "Reasons", r.reasons());
+                .add("warnings", "Reasons", d.reasons());
     }
 }

@@ -73,7 +73,7 @@ class BackgroundCommandTest {
         // the same numbers as the core on the same pixels and regions
         float[] px = (float[]) imp.getProcessor().getPixels();
         int w = TestImages.SIZE;
-        BackgroundSnrResult core = BackgroundSnr.analyze(px, Region.rectangle("s", 38, 38, 20, 20, w, w),
+        BackgroundSnrResult core = BackgroundSnr.analyze(px, w, w, Region.rectangle("s", 38, 38, 20, 20, w, w),
                 List.of(Region.rectangle("b", 1, 1, 14, 14, w, w), Region.rectangle("b2", 80, 80, 14, 14, w, w)),
                 BackgroundSnr.Options.defaults());
         assertEquals(core.snr(), o.get("snr").getAsDouble(), 0.0);

@@ -27,7 +27,7 @@ class BackgroundSnrTest {
 
     @Test
     void measuresKnownSnr() throws InputException {
-        BackgroundSnrResult r = BackgroundSnr.analyze(phantom(100, 4, 1, 3), signal(), background(),
+        BackgroundSnrResult r = BackgroundSnr.analyze(phantom(100, 4, 1, 3), W, W, signal(), background(),
                 BackgroundSnr.Options.defaults());
         assertEquals(SigmaEstimator.ML, r.estimator());
         assertEquals(4.0, r.sigma().sigma(), 0.3);
@@ -41,7 +41,7 @@ class BackgroundSnrTest {
 
     @Test
     void chosenEstimatorIsReported() throws InputException {
-        BackgroundSnrResult r = BackgroundSnr.analyze(phantom(100, 4, 1, 3), signal(), background(),
+        BackgroundSnrResult r = BackgroundSnr.analyze(phantom(100, 4, 1, 3), W, W, signal(), background(),
                 new BackgroundSnr.Options(1, SigmaEstimator.MEDIAN));
         assertEquals(r.estimates().get(SigmaEstimator.MEDIAN), r.sigma());
     }
@@ -54,12 +54,17 @@ class BackgroundSnrTest {
             px[i] = 0f;
         }
         List<Region> small = List.of(Region.rectangle("bg", 2, 2, 8, 8, W, W), Region.rectangle("bg2", 40, 40, 3, 3, W, W));
-        BackgroundSnrResult r = BackgroundSnr.analyze(px, signal(), small, BackgroundSnr.Options.defaults());
+        BackgroundSnrResult r = BackgroundSnr.analyze(px, W, W, signal(), small, BackgroundSnr.Options.defaults());
         List<String> codes = r.warnings().stream().map(Warning::code).toList();
         assertTrue(codes.contains("few_background_pixels"), codes.toString());
         assertTrue(codes.contains("masked_background"), codes.toString());
-        assertTrue(codes.contains("low_snr"), codes.toString());
         assertTrue(codes.contains("regions_overlap"), codes.toString());
+        // a masked background is invalid: no SNR, so no statement about its bias either
+        assertTrue(codes.contains("no_snr") && !codes.contains("low_snr"), codes.toString());
+        assertTrue(Double.isNaN(r.snr()));
+        BackgroundSnrResult low = BackgroundSnr.analyze(phantom(6, 4, 1, 5), W, W, signal(), background(),
+                BackgroundSnr.Options.defaults());
+        assertTrue(low.warnings().stream().anyMatch(w -> w.code().equals("low_snr")), low.warnings().toString());
     }
 
     @Test
@@ -67,16 +72,16 @@ class BackgroundSnrTest {
         float[] px = phantom(100, 4, 1, 3);
         Region sig = signal();
         InputException none = assertThrows(InputException.class,
-                () -> BackgroundSnr.analyze(px, sig, List.of(), BackgroundSnr.Options.defaults()));
+                () -> BackgroundSnr.analyze(px, W, W, sig, List.of(), BackgroundSnr.Options.defaults()));
         assertTrue(none.getMessage().contains("no background region"));
-        assertThrows(InputException.class, () -> BackgroundSnr.analyze(px, null, background(), BackgroundSnr.Options.defaults()));
+        assertThrows(InputException.class, () -> BackgroundSnr.analyze(px, W, W, null, background(), BackgroundSnr.Options.defaults()));
         InputException outside = assertThrows(InputException.class, () -> Region.rectangle("bg", 90, 90, 10, 10, W, W));
         assertTrue(outside.getMessage().contains("outside the 96x96 image"), outside.getMessage());
         assertThrows(InputException.class, () -> Region.rectangle("bg", 1, 1, 0, 5, W, W));
         float[] withNaN = px.clone();
         withNaN[2 * W + 2] = Float.NaN;
         InputException nan = assertThrows(InputException.class,
-                () -> BackgroundSnr.analyze(withNaN, sig, background(), BackgroundSnr.Options.defaults()));
+                () -> BackgroundSnr.analyze(withNaN, W, W, sig, background(), BackgroundSnr.Options.defaults()));
         assertTrue(nan.getMessage().contains("NaN"), nan.getMessage());
         float[] zeros = px.clone();
         for (int i : background().get(0).indices()) {
@@ -85,16 +90,19 @@ class BackgroundSnrTest {
         for (int i : background().get(1).indices()) {
             zeros[i] = 0;
         }
-        InputException masked = assertThrows(InputException.class,
-                () -> BackgroundSnr.analyze(zeros, sig, background(), BackgroundSnr.Options.defaults()));
-        assertTrue(masked.getMessage().contains("masked"), masked.getMessage());
+        BackgroundSnrResult masked = BackgroundSnr.analyze(zeros, W, W, sig, background(), BackgroundSnr.Options.defaults());
+        assertEquals(org.noisewise.diagnose.Verdict.INVALID, masked.verdict());
+        assertTrue(Double.isNaN(masked.snr()), "an invalid background must not give an SNR");
+        assertTrue(masked.warnings().stream().anyMatch(w -> w.code().equals("masked_background")));
+        assertTrue(masked.warnings().stream().anyMatch(w -> w.code().equals("no_snr")
+                && w.message().contains("difference method")));
         float[] negative = px.clone();
         negative[2 * W + 3] = -1f;
         assertThrows(InputException.class,
-                () -> BackgroundSnr.analyze(negative, sig, background(), BackgroundSnr.Options.defaults()));
+                () -> BackgroundSnr.analyze(negative, W, W, sig, background(), BackgroundSnr.Options.defaults()));
         Region empty = new Region("empty", new int[0]);
         assertThrows(InputException.class,
-                () -> BackgroundSnr.analyze(px, empty, background(), BackgroundSnr.Options.defaults()));
+                () -> BackgroundSnr.analyze(px, W, W, empty, background(), BackgroundSnr.Options.defaults()));
     }
 
     @Test

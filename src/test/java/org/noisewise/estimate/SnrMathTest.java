@@ -54,7 +54,7 @@ class SnrMathTest {
             }
             Region s = new Region("signal", java.util.stream.IntStream.range(0, 900).toArray());
             Region b = new Region("bg", java.util.stream.IntStream.range(900, 2900).toArray());
-            BackgroundSnrResult r = BackgroundSnr.analyze(px, s, List.of(b), BackgroundSnr.Options.defaults());
+            BackgroundSnrResult r = BackgroundSnr.analyze(px, px.length, 1, s, List.of(b), BackgroundSnr.Options.defaults());
             covered += r.snrCi95().contains(expectedSnr) ? 1 : 0;
             sum += r.snr();
         }

@@ -85,7 +85,7 @@ class BackgroundSnrCommandTest {
         assertEquals(1, rt.size());
         int w = TestImages.SIZE;
         Region sig = RoiRegions.toRegion(new OvalRoi(38, 38, 20, 20), "s", w, w);
-        BackgroundSnrResult core = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, 1), sig,
+        BackgroundSnrResult core = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, 1), w, w, sig,
                 List.of(Region.rectangle("a", 1, 1, 14, 14, w, w), Region.rectangle("b", 80, 80, 14, 14, w, w)),
                 BackgroundSnr.Options.defaults());
         assertEquals(core.snr(), rt.getValue("SNR", 0), 1e-9);

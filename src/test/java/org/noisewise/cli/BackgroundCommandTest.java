@@ -85,6 +85,49 @@ class BackgroundCommandTest {
     }
 
     @Test
+    void autoChannelsAndVerdictInJson() {
+        Path eight = TestImages.saveTiff(TestImages.phantom("eight.tif", 100, 4, 8, 8), dir, "eight.tif");
+        CliRunner.Result r = CliRunner.run("background", eight.toString(), "--signal", "38,38,20,20",
+                "--background", "0,0,20,20", "--background", "76,76,20,20", "--background", "0,76,20,20",
+                "--channels", "auto", "--phase", "COL", "--json");
+        assertEquals(0, r.status(), r.err());
+        JsonObject o = JsonParser.parseString(r.out()).getAsJsonObject();
+        assertEquals(8.0, o.get("channels").getAsDouble(), 1.2);
+        // 1,200 background pixels pin L to about +-0.6 (95%), so the rounded count may be a neighbour
+        assertEquals(8, o.get("channels_used").getAsInt(), 1);
+        assertEquals(2, o.getAsJsonObject("channels_estimate").getAsJsonArray("ci95").size());
+        assertTrue(o.getAsJsonObject("noise_correlation").has("x"));
+        assertEquals(4.0, o.get("sigma").getAsDouble(), 0.4);
+        assertTrue(o.has("verdict"));
+        assertOneLineError(CliRunner.run("background", eight.toString(), "--signal", "38,38,20,20",
+                "--background", "0,0,20,20", "--channels", "many"), 3, "--channels");
+        assertOneLineError(CliRunner.run("background", eight.toString(), "--signal", "38,38,20,20",
+                "--background", "0,0,20,20", "--phase", "diagonal"), 3, "phase-encoding direction");
+    }
+
+    @Test
+    void invalidBackgroundGivesNullSnr() {
+        ImagePlus masked = TestImages.phantom("masked.tif", 100, 4, 1, 9);
+        float[] px = (float[]) masked.getProcessor().getPixels();
+        for (int i = 0; i < px.length; i++) {
+            if (px[i] < 4f) {
+                px[i] = 0f;
+            }
+        }
+        Path file = TestImages.saveTiff(masked, dir, "masked.tif");
+        CliRunner.Result r = CliRunner.run("background", file.toString(), "--signal", "38,38,20,20",
+                "--background", "1,1,14,14", "--background", "80,80,14,14", "--json");
+        assertEquals(0, r.status(), r.err());
+        JsonObject o = JsonParser.parseString(r.out()).getAsJsonObject();
+        assertEquals("invalid", o.get("verdict").getAsString());
+        assertTrue(o.get("snr").isJsonNull());
+        assertTrue(o.getAsJsonArray("snr_ci95").get(0).isJsonNull());
+        CliRunner.Result text = CliRunner.run("background", file.toString(), "--signal", "38,38,20,20",
+                "--background", "1,1,14,14");
+        assertTrue(text.out().contains("difference method"), text.out());
+    }
+
+    @Test
     void lowSnrWarningAppearsInJson() {
         Path low = TestImages.saveTiff(TestImages.phantom("low.tif", 8, 4, 1, 5), dir, "low.tif");
         CliRunner.Result r = CliRunner.run("background", low.toString(), "--signal", "38,38,20,20",

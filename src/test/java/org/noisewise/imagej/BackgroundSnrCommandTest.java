@@ -109,13 +109,14 @@ class BackgroundSnrCommandTest {
         add(new Roi(38, 38, 20, 20), "centre");     // no role from its name: set by region_1
         add(new Roi(1, 1, 14, 14), "bg1");
         add(new Roi(80, 1, 14, 14), "corner");      // set to background by region_3
-        IJ.run(imp, CMD, "channels=8 estimator=Median-based slices=[All slices] roles=[Region names] "
-                + "region_1=signal region_2=background region_3=background");
+        IJ.run(imp, CMD, "channels=auto estimator=Median-based slices=[All slices] roles=[Region names] "
+                + "phase=Unknown region_1=signal region_2=background region_3=background");
         ResultsTable rt = table(imp);
         assertEquals(3, rt.size());
         for (int row = 0; row < 3; row++) {
             assertEquals(row + 1, (int) rt.getValue("Slice", row));
-            assertEquals(8, (int) rt.getValue("Channels", row));
+            assertEquals(8, (int) rt.getValue("Channels used", row), 1);
+            assertEquals(8.0, rt.getValue("Channels (estimated)", row), 1.5);
             assertEquals("median", rt.getStringValue("Estimator", row));
             assertEquals(392, (int) rt.getValue("Background pixels", row));
             assertEquals(5.0, rt.getValue("Sigma [a.u.]", row), 0.5);

@@ -68,6 +68,14 @@ public class BackgroundCommand implements Callable<Integer> {
             throw new InputException(e.getMessage());
         }
         ImagePlus imp = ImageFiles.open(image);
+        List<ResultRow> rows = rows(imp, image.getFileName().toString(), regions, channels, est, phase, slice);
+        Output.print(spec.commandLine().getOut(), rows, json);
+        return 0;
+    }
+
+    /** The background method on one opened image: one row per selected slice. */
+    static List<ResultRow> rows(ImagePlus imp, String title, RegionOptions regions, Integer channels,
+                                SigmaEstimator est, String phase, Integer slice) throws InputException {
         RegionOptions.Resolved reg = regions.resolve(imp.getWidth(), imp.getHeight());
         if (reg.signal() == null) {
             throw RegionOptions.noSignal();
@@ -78,16 +86,13 @@ public class BackgroundCommand implements Callable<Integer> {
         PhaseDirection dir = phase == null ? ImageMetadata.phaseDirection(imp) : parsePhase(phase);
         BackgroundSnr.Options options = new BackgroundSnr.Options(channels, est, dir, BackgroundValues.storage(imp));
         String unit = ImagePlanes.valueUnit(imp);
-        String title = image.getFileName().toString();
         List<ResultRow> rows = new ArrayList<>();
         for (int n : Slices.select(imp, slice)) {
-            BackgroundSnrResult r = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, n), imp.getWidth(), imp.getHeight(),
-                    reg.signal(),
-                    reg.background(), options);
+            BackgroundSnrResult r = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, n), imp.getWidth(),
+                    imp.getHeight(), reg.signal(), reg.background(), options);
             rows.add(BackgroundSnrRows.row(title, n, unit, r));
         }
-        Output.print(spec.commandLine().getOut(), rows, json);
-        return 0;
+        return rows;
     }
 
     static PhaseDirection parsePhase(String text) throws InputException {

@@ -84,29 +84,37 @@ public class DifferenceCommand implements Callable<Integer> {
                 throw new InputException("--frames names frame " + frames.a() + " twice: choose two different frames");
             }
             ImagePlus imp = ImageFiles.open(images.get(0));
-            if (StackPlanes.repeatCount(imp) < 2) {
-                throw new InputException("'" + images.get(0).getFileName() + "' holds a single frame: the difference "
-                        + "method needs two acquisitions");
-            }
-            RegionOptions.Resolved reg = regions.resolve(imp.getWidth(), imp.getHeight());
-            if (reg.signal() == null) {
-                throw RegionOptions.noSignal();
-            }
-            String unit = ImagePlanes.valueUnit(imp);
-            String name = images.get(0).getFileName().toString();
-            for (int z : zSlices(imp)) {
-                rows.add(MethodRows.difference(name + " frame " + frames.a(), name + " frame " + frames.b(), z, unit,
-                        DifferenceSnr.analyze(
-                                ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, frames.a())),
-                                ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, frames.b())),
-                                reg.signal(), channels)));
-            }
+            rows.addAll(frameRows(imp, images.get(0).getFileName().toString(), regions, frames, channels, slice));
         }
         Output.print(spec.commandLine().getOut(), rows, json);
         return 0;
     }
 
-    private int[] zSlices(ImagePlus imp) throws InputException {
+    /** The difference method on two frames of one opened stack: one row per z slice. */
+    static List<ResultRow> frameRows(ImagePlus imp, String name, RegionOptions regions, FramePair frames, int channels,
+                                     Integer slice) throws InputException {
+        if (frames.a() == frames.b()) {
+            throw new InputException("--frames names frame " + frames.a() + " twice: choose two different frames");
+        }
+        if (StackPlanes.repeatCount(imp) < 2) {
+            throw new InputException("'" + name + "' holds a single frame: the difference method needs two acquisitions");
+        }
+        RegionOptions.Resolved reg = regions.resolve(imp.getWidth(), imp.getHeight());
+        if (reg.signal() == null) {
+            throw RegionOptions.noSignal();
+        }
+        String unit = ImagePlanes.valueUnit(imp);
+        List<ResultRow> rows = new ArrayList<>();
+        for (int z : zSlices(imp, slice)) {
+            rows.add(MethodRows.difference(name + " frame " + frames.a(), name + " frame " + frames.b(), z, unit,
+                    DifferenceSnr.analyze(ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, frames.a())),
+                            ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, frames.b())),
+                            reg.signal(), channels)));
+        }
+        return rows;
+    }
+
+    static int[] zSlices(ImagePlus imp, Integer slice) throws InputException {
         int zs = StackPlanes.zCount(imp);
         if (slice == null) {
             return java.util.stream.IntStream.rangeClosed(1, zs).toArray();

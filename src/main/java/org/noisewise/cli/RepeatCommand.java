@@ -108,6 +108,27 @@ public class RepeatCommand implements Callable<Integer> {
         return 0;
     }
 
+    /** The region summary on one opened stack of repeats: one row per z slice. */
+    static List<ResultRow> summaryRows(ImagePlus imp, String name, RegionOptions regions, boolean rician, int channels,
+                                       Integer slice) throws InputException {
+        if (StackPlanes.repeatCount(imp) < 2) {
+            throw new InputException("'" + name + "' holds a single frame: the repeated-acquisition method needs a "
+                    + "stack of at least 2 repeats of the same slice");
+        }
+        RegionOptions.Resolved reg = regions.resolve(imp.getWidth(), imp.getHeight());
+        if (reg.signal() == null) {
+            throw RegionOptions.noSignal();
+        }
+        String unit = ImagePlanes.valueUnit(imp);
+        List<ResultRow> rows = new ArrayList<>();
+        for (int z : DifferenceCommand.zSlices(imp, slice)) {
+            RepeatedAcquisitions.Maps m = RepeatedAcquisitions.maps(StackPlanes.repeats(imp, z), imp.getWidth(),
+                    imp.getHeight(), null);
+            rows.add(MethodRows.repeated(name, z, unit, RepeatedAcquisitions.summarize(m, reg.signal(), rician, channels)));
+        }
+        return rows;
+    }
+
     private Path mapPath(int z, int count) {
         if (count == 1) {
             return map;

@@ -23,6 +23,9 @@ public final class BackgroundValues {
      */
     public static BackgroundCheck.Storage storage(ImagePlus imp) {
         int depth = imp.getBitDepth();
+        if (imp.getProperty(NiftiReader.STEP_PROPERTY) instanceof Double step) {
+            return new BackgroundCheck.Storage(step, Double.POSITIVE_INFINITY);
+        }
         if (depth == 32) {
             return BackgroundCheck.Storage.floatingPoint();
         }

@@ -161,9 +161,31 @@ public final class Formats {
         sb.append(System.lineSeparator());
     }
 
+    /** Rows as CSV (RFC 4180): the headings of the first row, then one line per row, full precision. */
+    public static String toCsv(List<ResultRow> rows) {
+        StringBuilder sb = new StringBuilder();
+        if (rows.isEmpty()) {
+            return "";
+        }
+        sb.append(rows.get(0).headings().stream().map(Formats::csvField).collect(Collectors.joining(","))).append("\r\n");
+        for (ResultRow r : rows) {
+            sb.append(r.cells().stream().map(c -> csvField(csvValue(c.value()))).collect(Collectors.joining(",")))
+                    .append("\r\n");
+        }
+        return sb.toString();
+    }
+
+    /** A value as CSV text: numbers at full precision, blanks for missing values. */
+    public static String csvValue(Object v) {
+        if (v instanceof Double d) {
+            return Double.isFinite(d) ? Double.toString(d) : "";
+        }
+        return text(v);
+    }
+
     /** A CSV field, quoted when needed (RFC 4180). */
     public static String csvField(String s) {
-        if (s.contains(",") || s.contains("\"") || s.contains("\n")) {
+        if (s.contains(",") || s.contains("\"") || s.contains("\n") || s.contains("\r")) {
             return '"' + s.replace("\"", "\"\"") + '"';
         }
         return s;

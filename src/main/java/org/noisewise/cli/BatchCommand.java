@@ -1,0 +1,240 @@
+package org.noisewise.cli;
+
+import com.google.gson.JsonArray;
+import ij.ImagePlus;
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import java.util.stream.Stream;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.io.DicomSeries;
+import org.noisewise.io.ImageFiles;
+import org.noisewise.io.ImageWriter;
+import org.noisewise.report.Formats;
+import org.noisewise.report.ResultRow;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+/**
+ * {@code noisewise batch}: one method over every image and DICOM series below a folder, walked in
+ * a fixed (sorted) order. Every file is accounted for: measured rows have status {@code ok}, and a
+ * file that cannot be read or measured gets a row with status {@code error} and the reason.
+ */
+@Command(name = "batch", mixinStandardHelpOptions = true, sortOptions = false,
+        description = {"Run one method over every image file and DICOM series below FOLDER (sorted order), one row "
+                + "per series and slice; files that cannot be read or measured get a row saying why.",
+                "Exit status 0 when every file was measured, 4 when some could not be (their rows say why)."})
+public class BatchCommand implements Callable<Integer> {
+
+    /** Exit status when some files could not be measured. */
+    public static final int EXIT_SOME_FAILED = 4;
+
+    /** The methods batch can run. */
+    enum Method { background, difference, repeat }
+
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "FOLDER", description = "Folder to walk (sub-folders included).")
+    Path folder;
+
+    @Option(names = "--method", required = true, paramLabel = "NAME",
+            description = "background, difference (two frames of each stack) or repeat.")
+    Method method;
+
+    @Mixin
+    RegionOptions regions;
+
+    @Mixin
+    ChannelsOption channelOption;
+
+    @Option(names = "--estimator", paramLabel = "NAME", defaultValue = "ml", description = "background: ml, mean, sd or median.")
+    String estimator;
+
+    @Option(names = "--phase", paramLabel = "ROW|COL", description = "background: phase-encoding direction.")
+    String phase;
+
+    @Option(names = "--frames", paramLabel = "a,b", defaultValue = "1,2", converter = FramePair.Converter.class,
+            description = "difference: the two frames of each stack (default: ${DEFAULT-VALUE}).")
+    FramePair frames;
+
+    @Option(names = "--rician", description = "repeat: Koay-Basser correction of the summary.")
+    boolean rician;
+
+    @Option(names = "--slice", paramLabel = "N", description = "1-based slice (z) of each image (default: every slice).")
+    Integer slice;
+
+    @Option(names = {"--out", "--csv"}, paramLabel = "FILE", description = "Write the rows as CSV.")
+    Path csv;
+
+    @Option(names = "--force", description = "Replace the CSV file if it exists.")
+    boolean force;
+
+    @Option(names = "--json", description = "Write the rows as a JSON array instead of a table.")
+    boolean json;
+
+    /** One thing to measure: an image file or a DICOM series. */
+    record Item(String name, Path path, DicomSeries.Series series) {
+    }
+
+    @Override
+    public Integer call() throws InputException {
+        if (!Files.isDirectory(folder)) {
+            throw new InputException("'" + folder + "' is not a folder: give the folder to walk");
+        }
+        Integer channels = channelOption.get(method == Method.background);
+        SigmaEstimator est;
+        try {
+            est = SigmaEstimator.parse(estimator);
+        } catch (IllegalArgumentException e) {
+            throw new InputException(e.getMessage());
+        }
+        if (csv != null) {
+            ImageWriter.checkWritable(csv, force);
+        }
+        List<Item> items = items(folder, csv);
+        PrintWriter err = spec.commandLine().getErr();
+        long start = System.nanoTime();
+        List<ResultRow> rows = new ArrayList<>();
+        List<String> headings = null;
+        List<Item> failed = new ArrayList<>();
+        List<String> failures = new ArrayList<>();
+        int measured = 0;
+        for (int i = 0; i < items.size(); i++) {
+            Item item = items.get(i);
+            try {
+                ImagePlus imp = item.series() != null ? DicomSeries.open(item.series(), item.name())
+                        : ImageFiles.open(item.path());
+                List<ResultRow> r = switch (method) {
+                    case background -> BackgroundCommand.rows(imp, item.name(), regions, channels, est, phase, slice);
+                    case difference -> DifferenceCommand.frameRows(imp, item.name(), regions, frames,
+                            channels == null ? 1 : channels, slice);
+                    case repeat -> RepeatCommand.summaryRows(imp, item.name(), regions, rician,
+                            channels == null ? 1 : channels, slice);
+                };
+                for (ResultRow row : r) {
+                    rows.add(row.add("status", "Status", "ok").add("error", "Error", ""));
+                }
+                if (headings == null && !r.isEmpty()) {
+                    headings = rows.get(rows.size() - 1).headings();
+                }
+                measured++;
+            } catch (InputException e) {
+                failed.add(item);
+                failures.add(e.getMessage());
+                rows.add(null);
+            } catch (RuntimeException e) {
+                failed.add(item);
+                failures.add("could not be measured (" + e.getClass().getSimpleName() + ": " + e.getMessage() + ")");
+                rows.add(null);
+            }
+            if (items.size() > 1) {
+                err.printf(Locale.ROOT, "batch: %d/%d %s (%.1f s)%n", i + 1, items.size(), item.name(),
+                        (System.nanoTime() - start) / 1e9);
+                err.flush();
+            }
+        }
+        List<ResultRow> complete = fillErrors(rows, failed, failures, headings);
+        if (csv != null) {
+            ImageWriter.writeText(Formats.toCsv(complete), csv, force);
+        }
+        PrintWriter out = spec.commandLine().getOut();
+        if (json) {
+            JsonArray a = new JsonArray();
+            complete.forEach(r -> a.add(Formats.toJson(r)));
+            out.println(Formats.toJsonString(a));
+        } else {
+            out.print(Formats.alignedText(complete));
+        }
+        out.flush();
+        err.printf(Locale.ROOT, "batch: %d item(s), %d measured, %d failed, %d row(s) in %.1f s%s%n", items.size(),
+                measured, failed.size(), complete.size(), (System.nanoTime() - start) / 1e9,
+                csv != null ? "; wrote " + csv : "");
+        err.flush();
+        return failed.isEmpty() ? 0 : EXIT_SOME_FAILED;
+    }
+
+    /** Error rows take the measured rows' columns (blank) so every row has the same columns. */
+    private static List<ResultRow> fillErrors(List<ResultRow> rows, List<Item> failed, List<String> failures,
+                                              List<String> headings) {
+        List<ResultRow> out = new ArrayList<>();
+        int f = 0;
+        for (ResultRow r : rows) {
+            if (r != null) {
+                out.add(r);
+                continue;
+            }
+            Item item = failed.get(f);
+            String why = failures.get(f);
+            f++;
+            ResultRow e = new ResultRow();
+            if (headings == null) {
+                e.add("image", "Image", item.name()).add("status", "Status", "error").add("error", "Error", why);
+            } else {
+                ResultRow template = rows.stream().filter(x -> x != null).findFirst().orElseThrow();
+                for (ResultRow.Cell c : template.cells()) {
+                    Object v = switch (c.key()) {
+                        case "image" -> item.name();
+                        case "status" -> "error";
+                        case "error" -> why;
+                        default -> null;
+                    };
+                    e.add(c.key(), c.heading(), v);
+                }
+            }
+            out.add(e);
+        }
+        return out;
+    }
+
+    /** Image files and DICOM series below {@code root}, in sorted order; the output file itself is left out. */
+    static List<Item> items(Path root, Path exclude) throws InputException {
+        List<Path> dirs;
+        try (Stream<Path> s = Files.walk(root)) {
+            dirs = s.filter(Files::isDirectory).sorted().toList();
+        } catch (IOException e) {
+            throw new InputException("cannot walk folder '" + root + "': " + e.getMessage());
+        }
+        Path skip = exclude == null ? null : exclude.toAbsolutePath().normalize();
+        List<Item> items = new ArrayList<>();
+        for (Path d : dirs) {
+            List<Path> files;
+            try (Stream<Path> s = Files.list(d)) {
+                files = s.filter(Files::isRegularFile).sorted().toList();
+            } catch (IOException e) {
+                throw new InputException("cannot list folder '" + d + "': " + e.getMessage());
+            }
+            List<Path> dicom = new ArrayList<>();
+            for (Path f : files) {
+                if (skip != null && f.toAbsolutePath().normalize().equals(skip)) {
+                    continue;
+                }
+                if (DicomSeries.isDicom(f)) {
+                    dicom.add(f);
+                } else {
+                    items.add(new Item(root.relativize(f).toString(), f, null));
+                }
+            }
+            if (!dicom.isEmpty()) {
+                List<DicomSeries.Series> series = DicomSeries.find(d);
+                for (int i = 0; i < series.size(); i++) {
+                    String rel = root.relativize(d).toString();
+                    String name = (rel.isEmpty() ? "." : rel) + " [DICOM series" + (series.size() > 1 ? " " + (i + 1) : "")
+                            + ", " + series.get(i).files().size() + " file(s)]";
+                    items.add(new Item(name, d, series.get(i)));
+                }
+            }
+        }
+        return items;
+    }
+}

@@ -8,6 +8,8 @@ import java.util.concurrent.Callable;
 import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.BackgroundSnr;
 import org.noisewise.estimate.BackgroundSnrResult;
+import org.noisewise.estimate.DifferenceSnr;
+import org.noisewise.estimate.DifferenceSnrResult;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.io.BackgroundValues;
@@ -55,6 +57,11 @@ public class BackgroundCommand implements Callable<Integer> {
                     + "check; default: from DICOM 0018,1312, else unknown.")
     String phase;
 
+    @Option(names = "--second", paramLabel = "IMAGE2",
+            description = "A second identical acquisition: its difference sigma over the signal region is compared with "
+                    + "the background sigma, and a disagreement is reported.")
+    Path second;
+
     @Option(names = "--json", description = "Write one JSON object (an array of objects for several slices).")
     boolean json;
 
@@ -68,14 +75,20 @@ public class BackgroundCommand implements Callable<Integer> {
             throw new InputException(e.getMessage());
         }
         ImagePlus imp = ImageFiles.open(image);
-        List<ResultRow> rows = rows(imp, image.getFileName().toString(), regions, channels, est, phase, slice);
+        ImagePlus other = second == null ? null : ImageFiles.open(second);
+        List<ResultRow> rows = rows(imp, image.getFileName().toString(), regions, channels, est, phase, slice, other);
         Output.print(spec.commandLine().getOut(), rows, json);
         return 0;
     }
 
     /** The background method on one opened image: one row per selected slice. */
     static List<ResultRow> rows(ImagePlus imp, String title, RegionOptions regions, Integer channels,
-                                SigmaEstimator est, String phase, Integer slice) throws InputException {
+                                SigmaEstimator est, String phase, Integer slice, ImagePlus second) throws InputException {
+        if (second != null && (second.getWidth() != imp.getWidth() || second.getHeight() != imp.getHeight()
+                || second.getStackSize() != imp.getStackSize())) {
+            throw new InputException("the second acquisition differs in size from '" + title
+                    + "': give two acquisitions of the same matrix and slices");
+        }
         RegionOptions.Resolved reg = regions.resolve(imp.getWidth(), imp.getHeight());
         if (reg.signal() == null) {
             throw RegionOptions.noSignal();
@@ -88,8 +101,15 @@ public class BackgroundCommand implements Callable<Integer> {
         String unit = ImagePlanes.valueUnit(imp);
         List<ResultRow> rows = new ArrayList<>();
         for (int n : Slices.select(imp, slice)) {
-            BackgroundSnrResult r = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, n), imp.getWidth(),
-                    imp.getHeight(), reg.signal(), reg.background(), options);
+            float[] px = ImagePlanes.calibratedPixels(imp, n);
+            BackgroundSnr.Options o = options;
+            if (second != null) {
+                DifferenceSnrResult d = DifferenceSnr.analyze(px, ImagePlanes.calibratedPixels(second, n), reg.signal(),
+                        channels == null ? 1 : channels);
+                o = options.withDifference(new BackgroundSnr.DifferenceSigma(d.sigma(), d.sigmaCi95()));
+            }
+            BackgroundSnrResult r = BackgroundSnr.analyze(px, imp.getWidth(), imp.getHeight(), reg.signal(),
+                    reg.background(), o);
             rows.add(BackgroundSnrRows.row(title, n, unit, r));
         }
         return rows;

@@ -116,7 +116,8 @@ public class BatchCommand implements Callable<Integer> {
                 ImagePlus imp = item.series() != null ? DicomSeries.open(item.series(), item.name())
                         : ImageFiles.open(item.path());
                 List<ResultRow> r = switch (method) {
-                    case background -> BackgroundCommand.rows(imp, item.name(), regions, channels, est, phase, slice);
+                    case background -> BackgroundCommand.rows(imp, item.name(), regions, channels, est, phase, slice,
+                            null);
                     case difference -> DifferenceCommand.frameRows(imp, item.name(), regions, frames,
                             channels == null ? 1 : channels, slice);
                     case repeat -> RepeatCommand.summaryRows(imp, item.name(), regions, rician,

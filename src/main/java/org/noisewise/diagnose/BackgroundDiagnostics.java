@@ -54,6 +54,14 @@ public final class BackgroundDiagnostics {
             reasons = List.copyOf(reasons);
         }
 
+        /** The same diagnosis with one more reason and at least the given verdict. */
+        public Diagnosis withReason(Warning reason, Verdict atLeast) {
+            List<Warning> r = new ArrayList<>(reasons);
+            r.add(reason);
+            return new Diagnosis(channels, channelsEstimated, channelEstimate, correlation, effectivePixels, check, regions,
+                    regionTest, verdict.worst(atLeast), r);
+        }
+
         /** The channel count to report: the estimate when estimated, else the stated count. */
         public double reportedChannels() {
             return channelsEstimated && channelEstimate != null ? channelEstimate.channels() : channels;

@@ -31,6 +31,10 @@ public final class BackgroundSnr {
     private BackgroundSnr() {
     }
 
+    /** The sigma of the same slice measured by the difference method, with its interval. */
+    public record DifferenceSigma(double sigma, Interval ci95) {
+    }
+
     /**
      * Options of the method.
      *
@@ -40,7 +44,7 @@ public final class BackgroundSnr {
      * @param storage   how values were stored, for the quantisation and clipping checks
      */
     public record Options(Integer channels, SigmaEstimator estimator, PhaseDirection phase,
-                          BackgroundCheck.Storage storage) {
+                          BackgroundCheck.Storage storage, DifferenceSigma difference) {
         public Options {
             if (channels != null && channels < 1) {
                 throw new IllegalArgumentException("channel count must be >= 1, was " + channels);
@@ -50,8 +54,18 @@ public final class BackgroundSnr {
             storage = storage == null ? BackgroundCheck.Storage.floatingPoint() : storage;
         }
 
+        public Options(Integer channels, SigmaEstimator estimator, PhaseDirection phase,
+                       BackgroundCheck.Storage storage) {
+            this(channels, estimator, phase, storage, null);
+        }
+
         public Options(int channels, SigmaEstimator estimator) {
             this(Integer.valueOf(channels), estimator, PhaseDirection.UNKNOWN, BackgroundCheck.Storage.floatingPoint());
+        }
+
+        /** The same options with a two-acquisition sigma to compare the background with. */
+        public Options withDifference(DifferenceSigma d) {
+            return new Options(channels, estimator, phase, storage, d);
         }
 
         public static Options defaults() {
@@ -91,6 +105,13 @@ public final class BackgroundSnr {
         int channels = diag.channels();
         Map<SigmaEstimator, SigmaEstimate> est = BackgroundSigma.estimate(bg, channels, diag.effectivePixels());
         SigmaEstimate chosen = est.get(options.estimator());
+        if (options.difference() != null && chosen.sigma() > 0) {
+            Warning w = BackgroundDiagnostics.compareWithDifference(chosen.sigma(), chosen.ci95(),
+                    options.difference().sigma(), options.difference().ci95());
+            if (w != null) {
+                diag = diag.withReason(w, Verdict.QUESTIONABLE);
+            }
+        }
         warnings.addAll(diag.reasons());
         if (bg.length < MIN_BACKGROUND_PIXELS) {
             warnings.add(new Warning("few_background_pixels", String.format(Locale.ROOT,

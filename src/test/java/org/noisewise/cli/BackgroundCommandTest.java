@@ -127,6 +127,33 @@ class BackgroundCommandTest {
         assertTrue(text.out().contains("difference method"), text.out());
     }
 
+    /** Noise 1.5x higher inside the object than in air (as with a central g-factor): background and difference disagree. */
+    @Test
+    void secondAcquisitionExposesABackgroundThatMisrepresentsTheSignalNoise() {
+        java.util.SplittableRandom rng = new java.util.SplittableRandom(77);
+        Path[] files = new Path[2];
+        for (int k = 0; k < 2; k++) {
+            float[] px = new float[96 * 96];
+            for (int i = 0; i < px.length; i++) {
+                double dx = i % 96 + 0.5 - 48;
+                double dy = i / 96 + 0.5 - 48;
+                boolean in = dx * dx + dy * dy <= 28 * 28;
+                px[i] = (float) org.noisewise.sample.Phantoms.magnitude(rng, in ? 100 : 0, in ? 6 : 4, 1);
+            }
+            files[k] = TestImages.saveTiff(new ImagePlus("g", new ij.process.FloatProcessor(96, 96, px)), dir, "g" + k + ".tif");
+        }
+        CliRunner.Result r = CliRunner.run("background", files[0].toString(), "--second", files[1].toString(),
+                "--signal", "38,38,20,20", "--background", "1,1,14,14", "--background", "80,80,14,14", "--json");
+        assertEquals(0, r.status(), r.err());
+        JsonObject o = JsonParser.parseString(r.out()).getAsJsonObject();
+        assertEquals("questionable", o.get("verdict").getAsString());
+        assertTrue(r.out().contains("background_vs_difference"), r.out());
+        Path b = TestImages.saveTiff(TestImages.phantom("b", 100, 4, 1, 22), dir, "clean2.tif");
+        CliRunner.Result clean = CliRunner.run("background", image.toString(), "--second", b.toString(),
+                "--signal", "38,38,20,20", "--background", "1,1,14,14", "--background", "80,80,14,14", "--json");
+        assertFalse(clean.out().contains("background_vs_difference"), clean.out());
+    }
+
     @Test
     void lowSnrWarningAppearsInJson() {
         Path low = TestImages.saveTiff(TestImages.phantom("low.tif", 8, 4, 1, 5), dir, "low.tif");

@@ -183,7 +183,7 @@ public class BatchCommand implements Callable<Integer> {
                 e.add("image", "Image", item.name()).add("status", "Status", "error").add("error", "Error", why);
             } else {
                 ResultRow template = rows.stream().filter(x -> x != null).findFirst().orElseThrow();
-                for (ResultRow.Cell c : template.cells()) {
+                for (ResultRow.Cell c : template.tableCells()) {
                     Object v = switch (c.key()) {
                         case "image" -> item.name();
                         case "status" -> "error";

@@ -23,6 +23,7 @@ import org.noisewise.estimate.Warning;
 import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.io.ImagePlanes;
+import org.noisewise.io.QaRunner;
 import org.noisewise.io.StackPlanes;
 import org.noisewise.sample.SampleCatalog;
 import org.noisewise.sample.SampleCatalog.Rect;
@@ -50,6 +51,10 @@ public class DemoCommand implements Callable<Integer> {
             description = "Folder of the sample images (default: ${DEFAULT-VALUE}).")
     Path samples;
 
+    @Option(names = "--out", paramLabel = "DIR", defaultValue = "target/noisewise-demo",
+            description = "Folder for the demo's QA log and report (default: ${DEFAULT-VALUE}); its demo files are replaced.")
+    Path outDir;
+
     private PrintWriter out;
 
     @Override
@@ -75,12 +80,67 @@ public class DemoCommand implements Callable<Integer> {
         heading("4. Background noise check: is the background fit for the background method?");
         check(SampleCatalog.first(Use.BACKGROUND));
         check(SampleCatalog.first(Use.MASKED));
+        heading("5. Phantom QA: automatic regions, SNR, uniformity, ghosting, QA log and report");
+        phantomQa();
         out.println();
         out.println("Hand method = signal mean / SD of air, uncorrected: too high by 1/0.655 = 1.53x for one channel.");
         out.println("For image-quality QA and research only, not diagnosis; acceptance decisions rest with your site's");
         out.println("qualified medical physicist and local regulations.");
         out.flush();
         return 0;
+    }
+
+    /**
+     * Six invented weekly sessions (generated in memory) build the log's baseline, then the bundled
+     * pair is measured as week seven and reported.
+     */
+    private void phantomQa() throws InputException {
+        Path log = outDir.resolve("qa-log.csv");
+        Path report = outDir.resolve("qa-report.html");
+        try {
+            Files.createDirectories(outDir);
+            Files.deleteIfExists(log);
+        } catch (java.io.IOException e) {
+            throw new InputException("cannot prepare the demo folder '" + outDir + "': " + e.getMessage());
+        }
+        QaRunner.Options history = new QaRunner.Options(0.75, null, 1, 1.5, true, "Aster", "head", "weekly uniformity",
+                5, log, null, true, 1);
+        java.util.SplittableRandom drift = new java.util.SplittableRandom(7);
+        for (int week = 1; week <= 6; week++) {
+            double a = 120.0 * (1 + 0.01 * drift.nextGaussian());
+            ImagePlus[] pair = new ImagePlus[2];
+            for (int k = 0; k < 2; k++) {
+                float[] px = org.noisewise.sample.Phantoms.disk(SampleCatalog.SIZE, SampleCatalog.SIZE,
+                        SampleCatalog.SIZE / 2.0, SampleCatalog.SIZE / 2.0, SampleCatalog.RADIUS, a, 5.0, 1,
+                        9000L + 10L * week + k);
+                pair[k] = new ImagePlus("week " + week, new ij.process.FloatProcessor(SampleCatalog.SIZE,
+                        SampleCatalog.SIZE, px));
+                pair[k].getCalibration().pixelWidth = SampleCatalog.PIXEL_MM;
+                pair[k].getCalibration().pixelHeight = SampleCatalog.PIXEL_MM;
+                pair[k].getCalibration().setUnit("mm");
+                String date = java.time.LocalDate.of(2026, 10, 1).plusWeeks(week - 1L)
+                        .format(java.time.format.DateTimeFormatter.BASIC_ISO_DATE);
+                pair[k].setProperty("Info", "0008,0022  Acquisition Date: " + date
+                        + "\n0008,0032  Acquisition Time: 083000\n");
+            }
+            QaRunner.run(pair[0], pair[1], null, history, null);
+        }
+        Sample a = SampleCatalog.first(Use.PAIR_FIRST);
+        Sample b = SampleCatalog.first(Use.PAIR_SECOND);
+        QaRunner.Options now = new QaRunner.Options(0.75, null, 1, 1.5, true, "Aster", "head", "weekly uniformity",
+                5, log, report, true, 1);
+        QaRunner.Outcome o = QaRunner.run(open(a), open(b), null, now, samples.resolve(a.file()));
+        var r = o.result();
+        out.printf(Locale.ROOT, "%n%s + %s  (week 7; weeks 1-6 are an invented history in the log)%n", a.file(), b.file());
+        out.printf(Locale.ROOT, "  SNR (%s method) %.2f [%.2f, %.2f], true %.2f; verdict %s%n", r.method(), r.snr(),
+                r.snrCi95().low(), r.snrCi95().high(), a.trueSnr(), r.verdict().key());
+        out.printf(Locale.ROOT, "  percent integral uniformity %.2f%% (limit >= %.1f%%), NEMA non-uniformity %.2f%%%n",
+                r.piu(), r.limits().minimumPiu(), r.nemaNonUniformity());
+        out.printf(Locale.ROOT, "  percent-signal ghosting %.3f%% (limit <= %.1f%%)%n", r.ghostingPercent(),
+                r.limits().maximumGhostingPercent());
+        out.println("  flags: " + (o.flags().isEmpty() ? "none" : String.join("; ", o.flags())));
+        out.println("  QA log: " + log + " (" + (o.history().size() + 1) + " sessions)");
+        out.println("  report: " + report + "  (open it in a browser)");
     }
 
     private void heading(String text) {

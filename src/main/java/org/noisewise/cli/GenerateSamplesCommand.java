@@ -39,6 +39,10 @@ public class GenerateSamplesCommand implements Callable<Integer> {
                 }
                 ImagePlus imp = new ImagePlus(s.file(), st);
                 imp.setProperty("Info", "Noisewise generated sample (invented scenario): " + s.description());
+                imp.getCalibration().pixelWidth = SampleCatalog.PIXEL_MM;
+                imp.getCalibration().pixelHeight = SampleCatalog.PIXEL_MM;
+                imp.getCalibration().pixelDepth = 5.0;
+                imp.getCalibration().setUnit("mm");
                 FileSaver saver = new FileSaver(imp);
                 String path = out.resolve(s.file()).toString();
                 if (!(st.getSize() > 1 ? saver.saveAsTiffStack(path) : saver.saveAsTiff(path))) {

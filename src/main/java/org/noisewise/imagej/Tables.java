@@ -17,7 +17,7 @@ public final class Tables {
         rt.setPrecision(6);
         for (ResultRow row : rows) {
             rt.incrementCounter();
-            for (ResultRow.Cell c : row.cells()) {
+            for (ResultRow.Cell c : row.tableCells()) {
                 Object v = c.value();
                 if (v instanceof Number n && !(v instanceof Double d && !Double.isFinite(d))) {
                     rt.addValue(c.heading(), n.doubleValue());

@@ -80,8 +80,17 @@ public final class ImageWriter {
         }
     }
 
-    static void moveIntoPlace(Path tmp, Path out) throws InputException {
+    public static void moveIntoPlace(Path tmp, Path out) throws InputException {
         try {
+            // temporary files are created private (rw-------); the result gets ordinary permissions
+            try {
+                java.util.Set<java.nio.file.attribute.PosixFilePermission> perms = Files.exists(out)
+                        ? Files.getPosixFilePermissions(out)
+                        : java.nio.file.attribute.PosixFilePermissions.fromString("rw-r--r--");
+                Files.setPosixFilePermissions(tmp, perms);
+            } catch (UnsupportedOperationException ignored) {
+                // not a POSIX file system: keep the default
+            }
             try {
                 Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
             } catch (AtomicMoveNotSupportedException e) {

@@ -74,6 +74,16 @@ public final class Formats {
         if (v instanceof Number n) {
             return new JsonPrimitive(n);
         }
+        if (v instanceof double[] arr) {
+            JsonArray a = new JsonArray();
+            for (double d : arr) {
+                a.add(json(d));
+            }
+            return a;
+        }
+        if (v instanceof Boolean b) {
+            return new JsonPrimitive(b);
+        }
         if (v instanceof List<?> list) {
             JsonArray a = new JsonArray();
             for (Object o : list) {
@@ -120,7 +130,7 @@ public final class Formats {
         }
         StringBuilder sb = new StringBuilder();
         if (rows.size() == 1) {
-            List<ResultRow.Cell> cells = rows.get(0).cells();
+            List<ResultRow.Cell> cells = rows.get(0).tableCells();
             int w = cells.stream().mapToInt(c -> c.heading().length()).max().orElse(0);
             for (ResultRow.Cell c : cells) {
                 String t = text(c.value());
@@ -141,12 +151,12 @@ public final class Formats {
         for (int i = 0; i < heads.size(); i++) {
             widths[i] = heads.get(i).length();
             for (ResultRow r : rows) {
-                widths[i] = Math.max(widths[i], text(r.cells().get(i).value()).length());
+                widths[i] = Math.max(widths[i], text(r.tableCells().get(i).value()).length());
             }
         }
         appendLine(sb, heads, widths);
         for (ResultRow r : rows) {
-            appendLine(sb, r.cells().stream().map(c -> text(c.value())).toList(), widths);
+            appendLine(sb, r.tableCells().stream().map(c -> text(c.value())).toList(), widths);
         }
         return sb.toString();
     }
@@ -169,7 +179,7 @@ public final class Formats {
         }
         sb.append(rows.get(0).headings().stream().map(Formats::csvField).collect(Collectors.joining(","))).append("\r\n");
         for (ResultRow r : rows) {
-            sb.append(r.cells().stream().map(c -> csvField(csvValue(c.value()))).collect(Collectors.joining(",")))
+            sb.append(r.tableCells().stream().map(c -> csvField(csvValue(c.value()))).collect(Collectors.joining(",")))
                     .append("\r\n");
         }
         return sb.toString();

@@ -13,8 +13,11 @@ import java.util.List;
  */
 public final class ResultRow {
 
-    /** One cell. */
+    /** One cell; a {@code null} heading marks a JSON-only cell that tables and CSV leave out. */
     public record Cell(String key, String heading, Object value) {
+        public boolean inTable() {
+            return heading != null;
+        }
     }
 
     private final List<Cell> cells = new ArrayList<>();
@@ -28,8 +31,14 @@ public final class ResultRow {
         return Collections.unmodifiableList(cells);
     }
 
+    /** The headings of the table cells. */
     public List<String> headings() {
-        return cells.stream().map(Cell::heading).toList();
+        return tableCells().stream().map(Cell::heading).toList();
+    }
+
+    /** The cells that appear in tables and CSV. */
+    public List<Cell> tableCells() {
+        return cells.stream().filter(Cell::inTable).toList();
     }
 
     /** The value of the cell with this JSON key, or {@code null}. */

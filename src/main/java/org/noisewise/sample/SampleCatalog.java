@@ -11,6 +11,8 @@ public final class SampleCatalog {
 
     /** Image size of every sample. */
     public static final int SIZE = 128;
+    /** Pixel size of the samples in mm (a 256 mm field of view); slices are 5 mm thick. */
+    public static final double PIXEL_MM = 2.0;
     /** Disk phantom radius in pixels. */
     public static final double RADIUS = 40;
     /** Radius outside which a masked sample's reconstruction set the background to zero. */

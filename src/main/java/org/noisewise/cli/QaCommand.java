@@ -1,0 +1,107 @@
+package org.noisewise.cli;
+
+import ij.ImagePlus;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.concurrent.Callable;
+import org.noisewise.estimate.InputException;
+import org.noisewise.io.ImageFiles;
+import org.noisewise.io.QaRunner;
+import org.noisewise.phantom.QaLog;
+import org.noisewise.phantom.QaRegions;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+/** {@code noisewise qa}: phantom QA in one pass. */
+@Command(name = "qa", mixinStandardHelpOptions = true, sortOptions = false,
+        description = {"Phantom QA in one pass: find the phantom, place the regions, measure SNR (difference method for "
+                + "two acquisitions, repeated acquisitions for a stack of repeats, else background with its verdict), "
+                + "percent integral uniformity, NEMA non-uniformity and percent-signal ghosting; append to a QA log "
+                + "with baseline control limits; write an HTML report.",
+                "A QA measurement, not an acceptance test by itself: defer to the site's qualified medical physicist."})
+public class QaCommand implements Callable<Integer> {
+
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(arity = "1..2", paramLabel = "IMAGE", description = "IMAGE [IMAGE2]: one scan, or two identical acquisitions.")
+    List<Path> images;
+
+    @Option(names = "--log", paramLabel = "qa.csv", description = "QA log to append this measurement to (created if missing).")
+    Path log;
+
+    @Option(names = "--report", paramLabel = "out.html", description = "Write a self-contained HTML report.")
+    Path report;
+
+    @Option(names = "--force", description = "Replace the report file if it exists.")
+    boolean force;
+
+    @Option(names = "--fraction", paramLabel = "F", defaultValue = "0.75",
+            description = "Signal-region fraction of the phantom area (default: ${DEFAULT-VALUE}, NEMA MS 1).")
+    double fraction;
+
+    @Option(names = "--limits", description = "Apply the published large-phantom action limits (PIU, ghosting); only for "
+            + "scans made by that procedure.")
+    boolean limits;
+
+    @Option(names = "--field", paramLabel = "T", description = "Field strength in tesla (default: DICOM 0018,0087).")
+    Double field;
+
+    @Option(names = "--scanner", paramLabel = "NAME", description = "Scanner key for the log (default: DICOM).")
+    String scanner;
+
+    @Option(names = "--coil", paramLabel = "NAME", description = "Coil key for the log (default: DICOM 0018,1250).")
+    String coil;
+
+    @Option(names = "--protocol", paramLabel = "NAME", description = "Protocol key for the log (default: DICOM 0018,1030).")
+    String protocol;
+
+    @Option(names = "--baseline", paramLabel = "N", defaultValue = "5",
+            description = "Sessions forming the baseline per key (default: ${DEFAULT-VALUE}).")
+    int baseline;
+
+    @Option(names = "--phase", paramLabel = "ROW|COL", description = "Phase-encoding direction (default: DICOM 0018,1312).")
+    String phase;
+
+    @Mixin
+    ChannelsOption channelOption;
+
+    @Option(names = "--slice", paramLabel = "N", defaultValue = "1", description = "1-based z slice (default: ${DEFAULT-VALUE}).")
+    int slice;
+
+    @Option(names = "--json", description = "Write the result as JSON.")
+    boolean json;
+
+    @Override
+    public Integer call() throws InputException {
+        if (!(fraction > 0 && fraction <= 1)) {
+            throw new InputException("--fraction must be between 0 and 1, was " + fraction);
+        }
+        if (baseline < 2) {
+            throw new InputException("--baseline must be at least 2 sessions, was " + baseline);
+        }
+        Integer channels = channelOption.get(true);
+        ImagePlus first = ImageFiles.open(images.get(0));
+        ImagePlus second = images.size() > 1 ? ImageFiles.open(images.get(1)) : null;
+        QaRunner.Options o = new QaRunner.Options(fraction, phase == null ? null : BackgroundCommand.parsePhase(phase),
+                channels, field, limits, scanner, coil, protocol, baseline, log, report, force, slice);
+        QaRunner.Outcome out = QaRunner.run(first, second, null, o, images.get(0));
+        Output.print(spec.commandLine().getOut(), List.of(out.row()), json);
+        if (report != null) {
+            spec.commandLine().getErr().println("qa: wrote report " + report);
+        }
+        if (log != null) {
+            spec.commandLine().getErr().println("qa: appended to " + log + " (" + (out.history().size() + 1)
+                    + " row(s))");
+        }
+        spec.commandLine().getErr().flush();
+        return 0;
+    }
+
+    static final double DEFAULT_FRACTION = QaRegions.DEFAULT_FRACTION;
+    static final int DEFAULT_BASELINE = QaLog.DEFAULT_BASELINE;
+}

@@ -1,0 +1,90 @@
+package org.noisewise.io;
+
+import java.io.IOException;
+import java.nio.channels.FileChannel;
+import java.nio.channels.FileLock;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
+import java.util.List;
+import java.util.concurrent.locks.ReentrantLock;
+import org.noisewise.estimate.InputException;
+import org.noisewise.phantom.QaLog;
+
+/**
+ * The QA log on disk. An append takes an exclusive lock on a sidecar {@code .lock} file (shared by
+ * every process and thread), re-reads the log, writes the old text plus the new line to a temporary
+ * file in the same folder, forces it to disk and renames it over the log. The log is therefore
+ * always either the old or the new complete file, whatever kills a writer; rows already in it are
+ * copied byte for byte and never changed; two writers never lose each other's rows.
+ */
+public final class QaLogFile {
+
+    private static final ReentrantLock IN_PROCESS = new ReentrantLock();
+
+    private QaLogFile() {
+    }
+
+    /** The rows of the log, or none when it does not exist yet. */
+    public static List<QaLog.Entry> read(Path log) throws InputException {
+        if (!Files.exists(log)) {
+            return List.of();
+        }
+        try {
+            return QaLog.parse(Files.readString(log, StandardCharsets.UTF_8));
+        } catch (IOException e) {
+            throw new InputException("cannot read QA log '" + log + "': " + e.getMessage());
+        }
+    }
+
+    /** Appends one row; returns the history as it was before this row. */
+    public static List<QaLog.Entry> append(Path log, QaLog.Entry entry) throws InputException {
+        return append(log, history -> entry);
+    }
+
+    /**
+     * Appends the row that {@code make} builds from the history as it is under the lock (so baseline
+     * flags see every earlier row); returns that history.
+     */
+    public static List<QaLog.Entry> append(Path log, java.util.function.Function<List<QaLog.Entry>, QaLog.Entry> make)
+            throws InputException {
+        Path dir = log.toAbsolutePath().getParent();
+        if (dir == null || !Files.isDirectory(dir)) {
+            throw new InputException("folder of the QA log '" + log + "' does not exist: create it first");
+        }
+        Path lock = log.resolveSibling(log.getFileName() + ".lock");
+        IN_PROCESS.lock();
+        try (FileChannel ch = FileChannel.open(lock, StandardOpenOption.CREATE, StandardOpenOption.WRITE);
+             FileLock ignored = ch.lock()) {
+            String old = Files.exists(log) ? Files.readString(log, StandardCharsets.UTF_8) : "";
+            if (!old.isEmpty() && !old.startsWith(QaLog.COLUMNS.get(0))) {
+                throw new InputException("'" + log + "' is not a Noisewise QA log (its first line is not the expected "
+                        + "header): give another file name");
+            }
+            StringBuilder text = new StringBuilder(old);
+            if (old.isEmpty()) {
+                text.append(QaLog.header()).append("\r\n");
+            } else if (!old.endsWith("\n")) {
+                text.append("\r\n");
+            }
+            List<QaLog.Entry> history = QaLog.parse(old);
+            text.append(QaLog.line(make.apply(history))).append("\r\n");
+            Path tmp = Files.createTempFile(dir, "." + log.getFileName() + ".", ".part");
+            try {
+                try (FileChannel out = FileChannel.open(tmp, StandardOpenOption.WRITE)) {
+                    out.write(java.nio.ByteBuffer.wrap(text.toString().getBytes(StandardCharsets.UTF_8)));
+                    out.force(true);
+                }
+                ImageWriter.moveIntoPlace(tmp, log);
+            } finally {
+                Files.deleteIfExists(tmp);
+            }
+            return history;
+        } catch (IOException e) {
+            throw new InputException("cannot append to QA log '" + log + "': " + e.getMessage());
+        } finally {
+            IN_PROCESS.unlock();
+        }
+    }
+}

@@ -1,0 +1,171 @@
+package org.noisewise.phantom;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import org.noisewise.diagnose.BackgroundCheck;
+import org.noisewise.diagnose.BackgroundDiagnostics;
+import org.noisewise.diagnose.PhaseDirection;
+import org.noisewise.diagnose.Verdict;
+import org.noisewise.estimate.BackgroundSnr;
+import org.noisewise.estimate.BackgroundSnrResult;
+import org.noisewise.estimate.DifferenceSnr;
+import org.noisewise.estimate.DifferenceSnrResult;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Interval;
+import org.noisewise.estimate.Region;
+import org.noisewise.estimate.RepeatedAcquisitions;
+import org.noisewise.estimate.RepeatedSnrResult;
+import org.noisewise.estimate.SampleStats;
+import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.estimate.Warning;
+
+/**
+ * Phantom QA in one pass on one slice: find the phantom (or take the user's regions), place the
+ * regions, measure SNR by the best method the data allow (difference for two acquisitions, repeated
+ * acquisitions for three or more, otherwise background with its verdict), percent integral
+ * uniformity, NEMA-style non-uniformity and percent-signal ghosting, and compare with the published
+ * action limits when asked.
+ */
+public final class PhantomQa {
+
+    private PhantomQa() {
+    }
+
+    /**
+     * What to measure.
+     *
+     * @param frames        one or more acquisitions of the slice (calibrated values)
+     * @param threshold     intensity separating phantom from air (from an auto-threshold method)
+     * @param fraction      signal-region fraction of the phantom area
+     * @param phase         phase-encoding direction
+     * @param pixelWidthMm  pixel size in mm, NaN when uncalibrated
+     * @param pixelHeightMm pixel size in mm, NaN when uncalibrated
+     * @param channels      stated channel count, or null for auto
+     * @param storage       storage facts for the background checks
+     * @param limits        published limits to apply, or null
+     * @param placement     regions to use instead of automatic placement (the user's adjusted ones), or null
+     */
+    public record Input(float[][] frames, int width, int height, double threshold, double fraction,
+                        PhaseDirection phase, double pixelWidthMm, double pixelHeightMm, Integer channels,
+                        BackgroundCheck.Storage storage, ActionLimits limits, QaRegions.Placement placement) {
+    }
+
+    /** Everything measured. */
+    public record Result(QaRegions.Placement placement, Phantom phantom, String method, double signalMean,
+                         double sigma, Interval sigmaCi95, double snr, Interval snrCi95, Verdict verdict,
+                         QaMetrics.Windows windows, double piu, double nemaNonUniformity, double ghostingPercent,
+                         double[] sideMeans, ActionLimits limits, Boolean piuPasses, Boolean ghostingPasses,
+                         BackgroundDiagnostics.Diagnosis backgroundDiagnosis, double[] backgroundValues,
+                         List<Warning> warnings) {
+        public Result {
+            warnings = List.copyOf(warnings);
+        }
+    }
+
+    public static Result run(Input in) throws InputException {
+        if (in.frames().length == 0) {
+            throw new InputException("no image to measure");
+        }
+        int w = in.width();
+        int h = in.height();
+        float[] first = in.frames()[0];
+        Phantom phantom = null;
+        QaRegions.Placement pl = in.placement();
+        if (pl == null) {
+            phantom = PhantomFinder.find(first, w, h, in.threshold());
+            pl = QaRegions.place(phantom, w, h, in.fraction(), in.phase(), in.pixelWidthMm(), in.pixelHeightMm());
+        }
+        List<Warning> warnings = new ArrayList<>(pl.warnings());
+        Region signal = pl.signal().region();
+        List<Region> bg = pl.background().stream().map(PlacedRegion::region).toList();
+
+        String method;
+        double sigma;
+        Interval sigmaCi;
+        double snr;
+        Interval snrCi;
+        Verdict verdict = Verdict.VALID;
+        BackgroundDiagnostics.Diagnosis diag = null;
+        double[] bgValues = new double[0];
+        if (!bg.isEmpty()) {
+            bgValues = Region.pooledMagnitudes(first, bg);
+        }
+        double signalMean = SampleStats.of(signal.values(first)).mean();
+        if (in.frames().length == 2) {
+            DifferenceSnrResult d = DifferenceSnr.analyze(first, in.frames()[1], signal,
+                    in.channels() == null ? 1 : in.channels());
+            method = "difference";
+            sigma = d.sigma();
+            sigmaCi = d.sigmaCi95();
+            snr = d.snr();
+            snrCi = d.snrCi95();
+            warnings.addAll(d.warnings());
+            if (!bg.isEmpty()) {
+                diag = BackgroundDiagnostics.diagnose(first, w, h, signal, bg,
+                        new BackgroundDiagnostics.Options(in.channels(), in.phase(), in.storage()));
+            }
+        } else if (in.frames().length > 2) {
+            RepeatedAcquisitions.Maps m = RepeatedAcquisitions.maps(in.frames(), w, h, null);
+            RepeatedSnrResult r = RepeatedAcquisitions.summarize(m, signal, false, in.channels() == null ? 1 : in.channels());
+            method = "repeated";
+            sigma = r.sigma();
+            sigmaCi = r.sigmaCi95();
+            snr = r.snr();
+            snrCi = r.snrCi95();
+            signalMean = r.signalMean();
+            warnings.addAll(r.warnings());
+            if (!bg.isEmpty()) {
+                diag = BackgroundDiagnostics.diagnose(first, w, h, signal, bg,
+                        new BackgroundDiagnostics.Options(in.channels(), in.phase(), in.storage()));
+            }
+        } else {
+            if (bg.isEmpty()) {
+                throw new InputException("no room for background regions beside the phantom and only one acquisition: "
+                        + "give two acquisitions for the difference method, or a larger field of view");
+            }
+            BackgroundSnrResult r = BackgroundSnr.analyze(first, w, h, signal, bg,
+                    new BackgroundSnr.Options(in.channels(), SigmaEstimator.ML, in.phase(), in.storage()));
+            method = "background";
+            sigma = r.sigma().sigma();
+            sigmaCi = r.sigma().ci95();
+            snr = r.snr();
+            snrCi = r.snrCi95();
+            verdict = r.verdict();
+            diag = r.diagnosis();
+            warnings.addAll(r.warnings());
+        }
+
+        QaMetrics.Windows win = QaMetrics.searchWindows(first, w, h, signal, pl.windowSide());
+        double piu = QaMetrics.piu(win.high(), win.low());
+        double nu = QaMetrics.nemaNonUniformity(first, w, h, signal);
+        double ghosting = Double.NaN;
+        double[] sides = new double[] {Double.NaN, Double.NaN, Double.NaN, Double.NaN};
+        if (pl.top() != null && pl.bottom() != null && pl.left() != null && pl.right() != null) {
+            PlacedRegion[] four = {pl.top(), pl.bottom(), pl.left(), pl.right()};
+            for (int i = 0; i < 4; i++) {
+                sides[i] = SampleStats.of(four[i].region().values(first)).mean();
+            }
+            ghosting = QaMetrics.ghostingPercent(sides[0], sides[1], sides[2], sides[3], signalMean);
+        }
+        Boolean piuOk = null;
+        Boolean ghostOk = null;
+        ActionLimits lim = in.limits();
+        if (lim != null) {
+            piuOk = lim.piuPasses(piu);
+            if (!piuOk) {
+                warnings.add(new Warning("piu_limit", String.format(Locale.ROOT, "percent integral uniformity %.1f%% is "
+                        + "below the published action limit of %.1f%% at %.1f T", piu, lim.minimumPiu(), lim.fieldTesla())));
+            }
+            if (Double.isFinite(ghosting)) {
+                ghostOk = lim.ghostingPasses(ghosting);
+                if (!ghostOk) {
+                    warnings.add(new Warning("ghosting_limit", String.format(Locale.ROOT, "percent-signal ghosting "
+                            + "%.2f%% is above the published action limit of %.1f%%", ghosting, lim.maximumGhostingPercent())));
+                }
+            }
+        }
+        return new Result(pl, phantom, method, signalMean, sigma, sigmaCi, snr, snrCi, verdict, win, piu, nu, ghosting,
+                sides, lim, piuOk, ghostOk, diag, bgValues, warnings);
+    }
+}

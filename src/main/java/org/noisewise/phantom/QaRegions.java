@@ -1,0 +1,176 @@
+package org.noisewise.phantom;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.stream.IntStream;
+import org.noisewise.diagnose.PhaseDirection;
+import org.noisewise.estimate.Region;
+import org.noisewise.estimate.Warning;
+
+/**
+ * Places the QA regions around a found phantom.
+ *
+ * <ul>
+ *   <li>Signal: the phantom's own shape (ellipse or rectangle) about its centroid, scaled so that it
+ *       holds the chosen fraction of the phantom's pixels (default 75%, NEMA MS 1).</li>
+ *   <li>Side regions above, below, left and right of the phantom, in air, clear of the phantom and
+ *       of the image border by a margin: used for percent-signal ghosting, and as background regions
+ *       (only those along the readout direction when the phase-encoding direction is known).</li>
+ *   <li>Uniformity: the square windows of about 1 cm^2 (from the pixel size; 1% of the signal area
+ *       when the image has no calibration) with the highest and lowest mean inside the signal region.</li>
+ * </ul>
+ */
+public final class QaRegions {
+
+    /** Default signal-region fraction of the phantom area (NEMA MS 1: at least 75%). */
+    public static final double DEFAULT_FRACTION = 0.75;
+
+    private QaRegions() {
+    }
+
+    /** All placed regions and the cautions found while placing them. */
+    public record Placement(PlacedRegion signal, List<PlacedRegion> background, PlacedRegion top, PlacedRegion bottom,
+                            PlacedRegion left, PlacedRegion right, int windowSide, List<Warning> warnings) {
+        public List<PlacedRegion> all() {
+            List<PlacedRegion> out = new ArrayList<>();
+            out.add(signal);
+            for (PlacedRegion p : new PlacedRegion[] {top, bottom, left, right}) {
+                if (p != null) {
+                    out.add(p);
+                }
+            }
+            return out;
+        }
+    }
+
+    /**
+     * @param pixelSizeMm pixel width and height in mm, or NaN when the image has no calibration
+     */
+    public static Placement place(Phantom p, int width, int height, double fraction, PhaseDirection phase,
+                                  double pixelWidthMm, double pixelHeightMm) {
+        if (!(fraction > 0 && fraction <= 1)) {
+            throw new IllegalArgumentException("signal fraction must be in (0, 1], was " + fraction);
+        }
+        List<Warning> warnings = new ArrayList<>();
+        PlacedRegion signal = signal(p, width, height, fraction);
+        int margin = Math.max(2, (int) Math.round(0.03 * Math.min(width, height)));
+        PlacedRegion top = side("ghost top", p.minX(), p.maxX(), margin, p.minY() - margin, width, true, p);
+        PlacedRegion bottom = side("ghost bottom", p.minX(), p.maxX(), p.maxY() + 1 + margin, height - margin, width,
+                true, p);
+        PlacedRegion left = side("ghost left", p.minY(), p.maxY(), margin, p.minX() - margin, width, false, p);
+        PlacedRegion right = side("ghost right", p.minY(), p.maxY(), p.maxX() + 1 + margin, width - margin, width,
+                false, p);
+        for (PlacedRegion r : new PlacedRegion[] {top, bottom, left, right}) {
+            if (r == null) {
+                warnings.add(new Warning("no_room", "not all four sides of the phantom have room for an air region "
+                        + "clear of the phantom and the image border: ghosting cannot be measured; use a larger field of view"));
+                break;
+            }
+        }
+        List<PlacedRegion> bg = new ArrayList<>();
+        // phase along rows: ghosts left/right, readout vertical, so air above and below is clean
+        PlacedRegion[] readout = switch (phase) {
+            case ROW -> new PlacedRegion[] {top, bottom};
+            case COL -> new PlacedRegion[] {left, right};
+            case UNKNOWN -> new PlacedRegion[] {top, bottom, left, right};
+        };
+        for (PlacedRegion r : readout) {
+            if (r != null) {
+                bg.add(new PlacedRegion(r.name().replace("ghost", "bg"), r.kind(), r.x(), r.y(), r.w(), r.h(),
+                        new Region(r.name().replace("ghost", "bg"), r.region().indices())));
+            }
+        }
+        int window;
+        if (Double.isFinite(pixelWidthMm) && Double.isFinite(pixelHeightMm) && pixelWidthMm > 0 && pixelHeightMm > 0) {
+            window = (int) Math.max(2, Math.round(Math.sqrt(100.0 / (pixelWidthMm * pixelHeightMm))));
+        } else {
+            window = (int) Math.max(2, Math.round(Math.sqrt(0.01 * signal.region().size())));
+            warnings.add(new Warning("uncalibrated", String.format(Locale.ROOT, "the image has no pixel size: the "
+                    + "uniformity windows (1 cm^2 in published procedures) were set to %d x %d pixels, 1%% of the "
+                    + "signal region; calibrate the image (Image > Properties) for the published size", window, window)));
+        }
+        return new Placement(signal, bg, top, bottom, left, right, window, warnings);
+    }
+
+    /** The phantom's shape scaled about its centroid to hold {@code fraction} of its pixels. */
+    static PlacedRegion signal(Phantom p, int width, int height, double fraction) {
+        int target = (int) Math.round(fraction * p.area());
+        double lo = 0;
+        double hi = 1.5;
+        for (int it = 0; it < 60; it++) {
+            double mid = 0.5 * (lo + hi);
+            if (count(p, width, height, mid) < target) {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+        }
+        double s = hi;
+        double a = s * p.semiX();
+        double b = s * p.semiY();
+        int[] idx = members(p, width, height, s);
+        return new PlacedRegion("signal", p.rectangular() ? PlacedRegion.Kind.RECTANGLE : PlacedRegion.Kind.OVAL,
+                p.cx() - a, p.cy() - b, 2 * a, 2 * b, new Region("signal", idx));
+    }
+
+    private static int count(Phantom p, int width, int height, double s) {
+        return members(p, width, height, s).length;
+    }
+
+    private static int[] members(Phantom p, int width, int height, double s) {
+        double a = s * p.semiX();
+        double b = s * p.semiY();
+        return IntStream.range(0, width * height).filter(i -> {
+            double dx = (i % width + 0.5 - p.cx()) / a;
+            double dy = (i / width + 0.5 - p.cy()) / b;
+            boolean in = p.rectangular() ? Math.abs(dx) <= 1 && Math.abs(dy) <= 1 : dx * dx + dy * dy <= 1;
+            return in && p.inside(i);
+        }).toArray();
+    }
+
+    /**
+     * A rectangle beside the phantom, reaching from {@code from} to {@code to} (exclusive) away from it
+     * (along y for a horizontal band above or below, along x for one left or right), and spanning the
+     * middle half of the phantom's extent across; {@code null} when there is no room or it would touch
+     * the phantom.
+     */
+    private static PlacedRegion side(String name, int spanLo, int spanHi, int from, int to, int width, boolean horizontalBand,
+                                     Phantom p) {
+        int depth = to - from;
+        int span = spanHi - spanLo + 1;
+        int across = Math.max(3, span / 2);
+        int start = spanLo + (span - across) / 2;
+        if (depth < 3) {
+            return null;
+        }
+        int x;
+        int y;
+        int w;
+        int h;
+        if (horizontalBand) {
+            x = start;
+            y = from;
+            w = across;
+            h = depth;
+        } else {
+            x = from;
+            y = start;
+            w = depth;
+            h = across;
+        }
+        int[] idx = new int[w * h];
+        int k = 0;
+        for (int yy = y; yy < y + h; yy++) {
+            for (int xx = x; xx < x + w; xx++) {
+                idx[k++] = yy * width + xx;
+            }
+        }
+        for (int i : idx) {
+            if (p.inside(i)) {
+                return null;
+            }
+        }
+        return new PlacedRegion(name, PlacedRegion.Kind.RECTANGLE, x, y, w, h, new Region(name, idx));
+    }
+}

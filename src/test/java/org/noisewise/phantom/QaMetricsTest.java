@@ -1,0 +1,146 @@
+package org.noisewise.phantom;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.List;
+import java.util.SplittableRandom;
+import org.junit.jupiter.api.Test;
+import org.noisewise.diagnose.PhaseDirection;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Region;
+import org.noisewise.io.PhantomLocator;
+import org.noisewise.math.ChiMoments;
+
+class QaMetricsTest {
+
+    private static final int N = 128;
+
+    /** references.md section 4, published PIU checks [math]: 94.737, 88.889, 81.657. */
+    @Test
+    void publishedPiuChecks() {
+        assertEquals(94.737, QaMetrics.piu(1000, 900), 5e-4);
+        assertEquals(88.889, QaMetrics.piu(1000, 800), 5e-4);
+        assertEquals(81.657, QaMetrics.piu(1000, 690), 5e-4);
+    }
+
+    /** references.md section 4: top 12, bottom 10, left 4, right 2, mean 1000 gives 0.008, i.e. 0.8%. */
+    @Test
+    void publishedGhostingCheck() {
+        assertEquals(0.8, QaMetrics.ghostingPercent(12, 10, 4, 2, 1000), 1e-12);
+    }
+
+    /** Action limits (references.md section 4): PIU >= 87.5% below 3 T, >= 82.0% at 3 T; ghosting <= 2.5%. */
+    @Test
+    void actionLimits() {
+        ActionLimits low = ActionLimits.largePhantom(1.5);
+        assertEquals(87.5, low.minimumPiu());
+        assertTrue(low.piuPasses(88.889));
+        assertFalse(low.piuPasses(81.657));
+        ActionLimits high = ActionLimits.largePhantom(3.0);
+        assertEquals(82.0, high.minimumPiu());
+        assertFalse(high.piuPasses(81.657));
+        assertTrue(high.ghostingPasses(2.5));
+        assertFalse(high.ghostingPasses(2.51));
+    }
+
+    /**
+     * A known linear ramp I = I0 (1 + g (x - cx) / R) across a noise-free disk: the highest and lowest
+     * 1 cm^2 windows inside the signal disk (radius rs) sit at the ends, centred d = sqrt(rs^2 - s^2/4) - s/2
+     * from the centre, so PIU = 100 (1 - g d / R) (closed form); measured within 0.5 points.
+     */
+    @Test
+    void rampPiu() throws InputException {
+        double cx = 64;
+        double cy = 64;
+        double radius = 40;
+        double g = 0.2;
+        float[] px = new float[N * N];
+        for (int i = 0; i < px.length; i++) {
+            double dx = i % N + 0.5 - cx;
+            double dy = i / N + 0.5 - cy;
+            px[i] = dx * dx + dy * dy <= radius * radius ? (float) (100 * (1 + g * dx / radius)) : 0f;
+        }
+        Phantom p = PhantomFinder.find(px, N, N, 50);
+        QaRegions.Placement pl = QaRegions.place(p, N, N, 0.75, PhaseDirection.UNKNOWN, 1.0, 1.0);
+        QaMetrics.Windows w = QaMetrics.searchWindows(px, N, N, pl.signal().region(), pl.windowSide());
+        double rs = Math.sqrt(pl.signal().region().size() / Math.PI);
+        double s = pl.windowSide();
+        double d = Math.sqrt(rs * rs - s * s / 4) - s / 2;
+        double expected = 100 * (1 - g * d / radius);
+        assertEquals(expected, QaMetrics.piu(w.high(), w.low()), 0.5);
+        assertTrue(w.highX() > w.lowX(), "the bright window must be on the right");
+    }
+
+    /**
+     * A known N/2 ghost: the object's copy shifted by half the field of view along y, at 5% of its
+     * amplitude, lands above and below it. The expected region means are the Rice means of each
+     * pixel's amplitude (references.md section 2 closed form), averaged over the regions; the measured
+     * ghosting equals the value computed from them within 0.2 points.
+     */
+    @Test
+    void halfFovGhosting() throws InputException {
+        double a = 200;
+        double sigma = 5;
+        double ghost = 0.05;
+        double radius = 30;
+        SplittableRandom rng = new SplittableRandom(9);
+        float[] px = new float[N * N];
+        double[] amp = new double[N * N];
+        for (int i = 0; i < px.length; i++) {
+            int x = i % N;
+            int y = i / N;
+            amp[i] = (in(x, y, radius) ? a : 0) + (in(x, (y + N / 2) % N, radius) ? ghost * a : 0);
+            double re = amp[i] + sigma * rng.nextGaussian();
+            double im = sigma * rng.nextGaussian();
+            px[i] = (float) Math.hypot(re, im);
+        }
+        Phantom p = PhantomFinder.find(px, N, N, PhantomLocator.threshold(px));
+        QaRegions.Placement pl = QaRegions.place(p, N, N, 0.75, PhaseDirection.COL, 1.0, 1.0);
+        double[] expectedSides = new double[4];
+        List<PlacedRegion> sides = List.of(pl.top(), pl.bottom(), pl.left(), pl.right());
+        for (int k = 0; k < 4; k++) {
+            expectedSides[k] = expectedMean(sides.get(k).region(), amp, sigma);
+        }
+        double expectedSignal = expectedMean(pl.signal().region(), amp, sigma);
+        double expected = QaMetrics.ghostingPercent(expectedSides[0], expectedSides[1], expectedSides[2],
+                expectedSides[3], expectedSignal);
+        assertTrue(expected > 1.0, "the ghost should be clearly visible: " + expected);
+        PhantomQa.Result r = PhantomQa.run(new PhantomQa.Input(new float[][] {px}, N, N, PhantomLocator.threshold(px),
+                0.75, PhaseDirection.COL, 1.0, 1.0, 1, null, ActionLimits.largePhantom(1.5), null));
+        assertEquals(expected, r.ghostingPercent(), 0.2);
+        assertEquals(Boolean.valueOf(expected <= 2.5), r.ghostingPasses());
+    }
+
+    private static boolean in(int x, int y, double r) {
+        double dx = x + 0.5 - N / 2.0;
+        double dy = y + 0.5 - N / 2.0;
+        return dx * dx + dy * dy <= r * r;
+    }
+
+    private static double expectedMean(Region region, double[] amp, double sigma) {
+        double s = 0;
+        for (int i : region.indices()) {
+            s += sigma * ChiMoments.riceMean(amp[i] / sigma);
+        }
+        return s / region.size();
+    }
+
+    /** SNR by the best method: one image -> background, two -> difference, three or more -> repeated. */
+    @Test
+    void bestMethodForTheData() throws InputException {
+        float[][] frames = new float[3][];
+        for (int k = 0; k < 3; k++) {
+            frames[k] = org.noisewise.sample.Phantoms.disk(N, N, 64, 64, 35, 100, 4, 1, 50 + k);
+        }
+        String[] expected = {"background", "difference", "repeated"};
+        for (int k = 1; k <= 3; k++) {
+            float[][] f = java.util.Arrays.copyOf(frames, k);
+            PhantomQa.Result r = PhantomQa.run(new PhantomQa.Input(f, N, N, PhantomLocator.threshold(f[0]), 0.75,
+                    PhaseDirection.UNKNOWN, 1.0, 1.0, 1, null, null, null));
+            assertEquals(expected[k - 1], r.method());
+            assertEquals(25.0, r.snr(), 2.5, r.method());
+        }
+    }
+}

@@ -88,6 +88,18 @@ public final class Screenshots {
         IJ.run(corrected, "Set... ", "zoom=200");
         settle();
         capture(corrected.getWindow(), "corrected.png");
+        Path log = Files.createTempDirectory("noisewise-shots").resolve("qa.csv");
+        ImagePlus qa1 = open("aster_disk_acq1.tif");
+        ImagePlus qa2 = open("aster_disk_acq2.tif");
+        qa1.show();
+        qa2.show();
+        IJ.run(qa1, "Phantom QA...", "second=aster_disk_acq2.tif regions=Automatic fraction=0.75 channels=1 "
+                + "phase=Unknown limits field=1.5 scanner=Aster coil=head protocol=weekly baseline=5 log=[" + log
+                + "] report=[] slice=1");
+        IJ.run(qa1, "Set... ", "zoom=300");
+        settle();
+        capture(qa1.getWindow(), "qa-regions.png");
+        capture(WindowManager.getWindow("Phantom QA - aster_disk_acq1.tif"), "qa-table.png");
         System.exit(0);
     }
 

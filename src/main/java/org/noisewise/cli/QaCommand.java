@@ -7,8 +7,6 @@ import java.util.concurrent.Callable;
 import org.noisewise.estimate.InputException;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.io.QaRunner;
-import org.noisewise.phantom.QaLog;
-import org.noisewise.phantom.QaRegions;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -36,6 +34,10 @@ public class QaCommand implements Callable<Integer> {
 
     @Option(names = "--report", paramLabel = "out.html", description = "Write a self-contained HTML report.")
     Path report;
+
+    @Option(names = "--trends", paramLabel = "DIR",
+            description = "With --log: write one trend plot per metric as PNG (trend_<metric>.png) into DIR.")
+    Path trends;
 
     @Option(names = "--force", description = "Replace the report file if it exists.")
     boolean force;
@@ -87,8 +89,11 @@ public class QaCommand implements Callable<Integer> {
         Integer channels = channelOption.get(true);
         ImagePlus first = ImageFiles.open(images.get(0));
         ImagePlus second = images.size() > 1 ? ImageFiles.open(images.get(1)) : null;
+        if (trends != null && (log == null || !java.nio.file.Files.isDirectory(trends))) {
+            throw new InputException("--trends needs --log and an existing folder; '" + trends + "' is not one");
+        }
         QaRunner.Options o = new QaRunner.Options(fraction, phase == null ? null : BackgroundCommand.parsePhase(phase),
-                channels, field, limits, scanner, coil, protocol, baseline, log, report, force, slice);
+                channels, field, limits, scanner, coil, protocol, baseline, log, report, force, slice, trends);
         QaRunner.Outcome out = QaRunner.run(first, second, null, o, images.get(0));
         Output.print(spec.commandLine().getOut(), List.of(out.row()), json);
         if (report != null) {
@@ -101,7 +106,4 @@ public class QaCommand implements Callable<Integer> {
         spec.commandLine().getErr().flush();
         return 0;
     }
-
-    static final double DEFAULT_FRACTION = QaRegions.DEFAULT_FRACTION;
-    static final int DEFAULT_BASELINE = QaLog.DEFAULT_BASELINE;
 }

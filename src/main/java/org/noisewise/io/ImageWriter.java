@@ -57,6 +57,19 @@ public final class ImageWriter {
         }
     }
 
+    /** Writes bytes atomically (the caller has checked that {@code out} may be written). */
+    public static void writeBytes(byte[] bytes, Path out) throws InputException {
+        Path tmp = temporaryBeside(out);
+        try {
+            Files.write(tmp, bytes);
+            moveIntoPlace(tmp, out);
+        } catch (IOException e) {
+            throw new InputException("could not write '" + out + "': " + e.getMessage());
+        } finally {
+            deleteQuietly(tmp);
+        }
+    }
+
     /** Writes text atomically. */
     public static void writeText(String text, Path out, boolean force) throws InputException {
         checkWritable(out, force);

@@ -56,7 +56,13 @@ public final class QaRunner {
      */
     public record Options(double fraction, PhaseDirection phase, Integer channels, Double fieldTesla, boolean limits,
                           String scanner, String coil, String protocol, int baseline, Path log, Path report,
-                          boolean force, int slice) {
+                          boolean force, int slice, Path trendDir) {
+        public Options(double fraction, PhaseDirection phase, Integer channels, Double fieldTesla, boolean limits,
+                       String scanner, String coil, String protocol, int baseline, Path log, Path report,
+                       boolean force, int slice) {
+            this(fraction, phase, channels, fieldTesla, limits, scanner, coil, protocol, baseline, log, report, force,
+                    slice, null);
+        }
     }
 
     /** What a run produced. */
@@ -154,6 +160,13 @@ public final class QaRunner {
         if (o.report() != null) {
             ImageWriter.writeText(report(out, frames[0], w, h, unit, o), o.report(), o.force());
         }
+        if (o.trendDir() != null && o.log() != null) {
+            for (Map.Entry<String, byte[]> t : trends(out, o).entrySet()) {
+                Path png = o.trendDir().resolve("trend_" + t.getKey() + ".png");
+                ImageWriter.checkWritable(png, true);
+                ImageWriter.writeBytes(t.getValue(), png);
+            }
+        }
         return out;
     }
 
@@ -211,16 +224,11 @@ public final class QaRunner {
         }
         if (o.log() != null) {
             html.heading("Trends (" + o.log().getFileName() + ")");
-            List<QaLog.Entry> all = new ArrayList<>(out.history());
-            all.add(out.entry());
             String key = out.entry().key();
-            List<QaLog.Entry> mine = all.stream().filter(e -> e.key().equals(key)).toList();
-            html.paragraph("Key: " + key + " - " + mine.size() + " session(s)", null);
-            for (Map.Entry<String, String> m : QaLog.METRICS.entrySet()) {
-                double[] v = mine.stream().mapToDouble(e -> e.number(m.getKey())).toArray();
-                QaLog.Baseline b = QaLog.baseline(all, key, m.getKey(), o.baseline());
-                html.image(m.getValue() + " by session", QaImages.png(QaImages.trend(m.getValue(), v, b, r.limits(),
-                        m.getKey()).getImagePlus()));
+            long sessions = out.history().stream().filter(e -> e.key().equals(key)).count() + 1;
+            html.paragraph("Key: " + key + " - " + sessions + " session(s)", null);
+            for (Map.Entry<String, byte[]> t : trends(out, o).entrySet()) {
+                html.image(QaLog.METRICS.get(t.getKey()) + " by session", t.getValue());
             }
         }
         html.heading("Cautions");
@@ -230,6 +238,22 @@ public final class QaRunner {
                     + "they hold only for scans made by that procedure.", null);
         }
         return html.html();
+    }
+
+    /** One trend plot (PNG) per metric, for this result's key, from the log's history plus this session. */
+    static Map<String, byte[]> trends(Outcome out, Options o) {
+        List<QaLog.Entry> all = new ArrayList<>(out.history());
+        all.add(out.entry());
+        String key = out.entry().key();
+        List<QaLog.Entry> mine = all.stream().filter(e -> e.key().equals(key)).toList();
+        Map<String, byte[]> pngs = new LinkedHashMap<>();
+        for (Map.Entry<String, String> m : QaLog.METRICS.entrySet()) {
+            double[] v = mine.stream().mapToDouble(e -> e.number(m.getKey())).toArray();
+            QaLog.Baseline b = QaLog.baseline(all, key, m.getKey(), o.baseline());
+            pngs.put(m.getKey(), QaImages.png(QaImages.trend(m.getValue(), v, b, out.result().limits(), m.getKey())
+                    .getImagePlus()));
+        }
+        return pngs;
     }
 
     private static String key(String option, ImagePlus imp, String tag, String extraTag) {

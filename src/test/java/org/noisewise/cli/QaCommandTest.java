@@ -96,6 +96,13 @@ class QaCommandTest {
         }
         assertTrue(compared >= 15, "compared only " + compared + " numbers");
         assertEquals(4, QaLog.parse(Files.readString(log)).size());
+        Path trends = Files.createDirectory(dir.resolve("trends"));
+        assertEquals(0, CliRunner.run("qa", A, B, "--log", log.toString(), "--scanner", "Aster", "--trends",
+                trends.toString()).status());
+        for (String metric : QaLog.METRICS.keySet()) {
+            Path png = trends.resolve("trend_" + metric + ".png");
+            assertNotNull(ImageIO.read(png.toFile()), "trend plot " + metric + " does not decode");
+        }
         CliRunner.Result again = CliRunner.run("qa", A, B, "--report", html.toString());
         assertEquals(3, again.status());
         assertFalse(again.err().isBlank());

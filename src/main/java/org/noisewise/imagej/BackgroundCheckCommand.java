@@ -10,14 +10,12 @@ import ij.measure.ResultsTable;
 import ij.plugin.PlugIn;
 import java.nio.file.Path;
 import java.util.List;
-import java.util.Arrays;
 import org.noisewise.diagnose.BackgroundDiagnostics;
 import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.HistogramPlot;
-import org.noisewise.io.ImageMetadata;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.ImageWriter;
 import org.noisewise.report.MethodRows;
@@ -49,9 +47,8 @@ public class BackgroundCheckCommand implements PlugIn {
         }
         RegionRoles regions = RegionRoles.of(imp);
         GenericDialog gd = new GenericDialog(TITLE);
-        gd.addStringField("Channels (L or auto):", "1", 6);
-        gd.addChoice("Phase encoding:", BackgroundSnrCommand.PHASES,
-                BackgroundSnrCommand.phaseLabel(ImageMetadata.phaseDirection(imp)));
+        DialogFields.addChannels(gd);
+        DialogFields.addPhase(gd, imp);
         gd.addCheckbox("Plot histogram and fit", true);
         gd.addStringField("PNG file for the plot (optional):", "", 30);
         regions.addFields(gd);
@@ -63,12 +60,12 @@ public class BackgroundCheckCommand implements PlugIn {
             return;
         }
         String channelText = gd.getNextString();
-        PhaseDirection phase = PhaseDirection.values()[Arrays.asList(BackgroundSnrCommand.PHASES).indexOf(gd.getNextChoice())];
+        PhaseDirection phase = DialogFields.nextPhase(gd);
         boolean plot = gd.getNextBoolean();
         String png = gd.getNextString().trim();
         regions.readFields(gd);
         try {
-            Integer channels = BackgroundSnrCommand.parseChannels(channelText);
+            Integer channels = DialogFields.parseChannels(channelText);
             Output out = process(imp, imp.getCurrentSlice(), regions.signalRegions(), regions.backgroundRegions(),
                     new BackgroundDiagnostics.Options(channels, phase, BackgroundValues.storage(imp)));
             out.table().show(tableTitle(imp));

@@ -17,7 +17,6 @@ import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.io.BackgroundValues;
-import org.noisewise.io.ImageMetadata;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.RoiRegions;
 import org.noisewise.io.RoleNames;
@@ -62,13 +61,13 @@ public class BackgroundSnrCommand implements PlugIn {
         Roi selection = imp.getRoi();
 
         GenericDialog gd = new GenericDialog(TITLE);
-        gd.addStringField("Channels (L or auto):", "1", 6);
+        DialogFields.addChannels(gd);
         gd.addChoice("Estimator:", SigmaEstimator.labels(), SigmaEstimator.ML.label());
         gd.addChoice("Slices:", new String[] {CURRENT, ALL}, CURRENT);
         boolean named = hasSignalName(managed);
         String defaultRoles = !named && selection != null && selection.isArea() ? BY_SELECTION : BY_NAME;
         gd.addChoice("Roles from:", new String[] {BY_NAME, BY_SELECTION}, defaultRoles);
-        gd.addChoice("Phase encoding:", PHASES, phaseLabel(ImageMetadata.phaseDirection(imp)));
+        DialogFields.addPhase(gd, imp);
         for (int i = 0; i < managed.length; i++) {
             String name = RoiRegions.nameOf(managed[i], i);
             gd.addChoice("Region_" + (i + 1) + " (" + name + "):", RoleNames.labels(),
@@ -83,13 +82,13 @@ public class BackgroundSnrCommand implements PlugIn {
         SigmaEstimator estimator = SigmaEstimator.parse(gd.getNextChoice());
         boolean all = ALL.equals(gd.getNextChoice());
         boolean bySelection = BY_SELECTION.equals(gd.getNextChoice());
-        PhaseDirection phase = PhaseDirection.values()[java.util.Arrays.asList(PHASES).indexOf(gd.getNextChoice())];
+        PhaseDirection phase = DialogFields.nextPhase(gd);
         RoleNames[] roles = new RoleNames[managed.length];
         for (int i = 0; i < managed.length; i++) {
             roles[i] = RoleNames.fromLabel(gd.getNextChoice());
         }
         try {
-            Integer channels = parseChannels(channelText);
+            Integer channels = DialogFields.parseChannels(channelText);
             Roi signal;
             List<Roi> background = new ArrayList<>();
             if (bySelection) {
@@ -119,29 +118,6 @@ public class BackgroundSnrCommand implements PlugIn {
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
         }
-    }
-
-    static final String[] PHASES = {"Rows (ghosts left/right)", "Columns (ghosts above/below)", "Unknown"};
-
-    static String phaseLabel(PhaseDirection d) {
-        return PHASES[d.ordinal()];
-    }
-
-    /** "auto" gives {@code null} (estimate the channel count); otherwise a whole number of at least 1. */
-    static Integer parseChannels(String text) throws InputException {
-        String t = text.trim();
-        if (t.equalsIgnoreCase("auto")) {
-            return null;
-        }
-        try {
-            int l = Integer.parseInt(t);
-            if (l >= 1) {
-                return l;
-            }
-        } catch (NumberFormatException e) {
-            // fall through to the message
-        }
-        throw new InputException("channels must be a whole number of at least 1, or auto; was '" + text + "'");
     }
 
     /** The table's window title for this image. */

@@ -9,13 +9,11 @@ import ij.plugin.PlugIn;
 import ij.plugin.frame.RoiManager;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
 import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.io.HistogramPlot;
-import org.noisewise.io.ImageMetadata;
 import org.noisewise.io.QaImages;
 import org.noisewise.io.QaRunner;
 import org.noisewise.io.RoiRegions;
@@ -61,9 +59,8 @@ public class PhantomQaCommand implements PlugIn {
         gd.addChoice("Second acquisition:", titles.toArray(new String[0]), NONE);
         gd.addChoice("Regions:", new String[] {AUTOMATIC, MANAGER}, AUTOMATIC);
         gd.addNumericField("Fraction of phantom area for the signal region:", QaRegions.DEFAULT_FRACTION, 2);
-        gd.addStringField("Channels (L or auto):", "1", 6);
-        gd.addChoice("Phase encoding:", BackgroundSnrCommand.PHASES,
-                BackgroundSnrCommand.phaseLabel(ImageMetadata.phaseDirection(imp)));
+        DialogFields.addChannels(gd);
+        DialogFields.addPhase(gd, imp);
         gd.addCheckbox("Limits: apply the published large-phantom action limits", false);
         gd.addNumericField("Field strength (T, 0 = from DICOM):", 0, 1);
         gd.addStringField("Scanner (blank = from DICOM):", "", 20);
@@ -85,7 +82,7 @@ public class PhantomQaCommand implements PlugIn {
         boolean manager = MANAGER.equals(gd.getNextChoice());
         double fraction = gd.getNextNumber();
         String channelText = gd.getNextString();
-        PhaseDirection phase = PhaseDirection.values()[Arrays.asList(BackgroundSnrCommand.PHASES).indexOf(gd.getNextChoice())];
+        PhaseDirection phase = DialogFields.nextPhase(gd);
         boolean limits = gd.getNextBoolean();
         double field = gd.getNextNumber();
         String scanner = gd.getNextString().trim();
@@ -102,7 +99,7 @@ public class PhantomQaCommand implements PlugIn {
             }
             ImagePlus second = NONE.equals(secondTitle) ? null : WindowManager.getImage(secondTitle);
             QaRegions.Placement placement = manager ? fromManager(imp) : null;
-            QaRunner.Options o = new QaRunner.Options(fraction, phase, BackgroundSnrCommand.parseChannels(channelText),
+            QaRunner.Options o = new QaRunner.Options(fraction, phase, DialogFields.parseChannels(channelText),
                     field > 0 ? field : null, limits, scanner.isEmpty() ? null : scanner, coil.isEmpty() ? null : coil,
                     protocol.isEmpty() ? null : protocol, baseline, log.isEmpty() ? null : Path.of(log),
                     report.isEmpty() ? null : Path.of(report), true, slice);

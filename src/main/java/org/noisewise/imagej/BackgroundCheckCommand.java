@@ -77,6 +77,8 @@ public class BackgroundCheckCommand implements PlugIn {
             }
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
+        } catch (RuntimeException e) {
+            Errors.unexpected(TITLE, e);
         }
     }
 

@@ -117,6 +117,8 @@ public class BackgroundSnrCommand implements PlugIn {
             rt.show(tableTitle(imp));
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
+        } catch (RuntimeException e) {
+            Errors.unexpected(TITLE, e);
         }
     }
 

@@ -78,6 +78,8 @@ public class DifferenceSnrCommand implements PlugIn {
             rt.show(tableTitle(first));
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
+        } catch (RuntimeException e) {
+            Errors.unexpected(TITLE, e);
         }
     }
 

@@ -119,6 +119,8 @@ public class PhantomQaCommand implements PlugIn {
             }
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
+        } catch (RuntimeException e) {
+            Errors.unexpected(TITLE, e);
         }
     }
 

@@ -56,6 +56,8 @@ public class RicianCorrectionCommand implements PlugIn {
             process(imp, sigma, sigma == 0 ? regions.backgroundRegions() : List.of(), channels, method).show();
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
+        } catch (RuntimeException e) {
+            Errors.unexpected(TITLE, e);
         }
     }
 

@@ -1,0 +1,21 @@
+package org.noisewise.imagej;
+
+import ij.IJ;
+import ij.Macro;
+
+/** How the commands report an unexpected failure: one message, no stack trace. */
+final class Errors {
+
+    private Errors() {
+    }
+
+    /** Reports {@code e}; ImageJ's own macro cancellation passes through untouched. */
+    static void unexpected(String title, RuntimeException e) {
+        if (Macro.MACRO_CANCELED.equals(e.getMessage())) {
+            throw e;
+        }
+        IJ.error(title, "Noisewise could not finish (" + e.getClass().getSimpleName()
+                + (e.getMessage() == null ? "" : ": " + e.getMessage()) + "). Nothing was changed. Please report it "
+                + "with the image type, size and regions used.");
+    }
+}

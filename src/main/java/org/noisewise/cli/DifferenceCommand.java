@@ -80,9 +80,6 @@ public class DifferenceCommand implements Callable<Integer> {
                 throw new InputException("one image was given: add a second image, or --frames a,b to use two frames "
                         + "of this stack");
             }
-            if (frames.a() == frames.b()) {
-                throw new InputException("--frames names frame " + frames.a() + " twice: choose two different frames");
-            }
             ImagePlus imp = ImageFiles.open(images.get(0));
             rows.addAll(frameRows(imp, images.get(0).getFileName().toString(), regions, frames, channels, slice));
         }

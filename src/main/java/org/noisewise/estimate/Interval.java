@@ -10,8 +10,4 @@ public record Interval(double low, double high) {
     public double width() {
         return high - low;
     }
-
-    public Interval scaled(double factor) {
-        return factor >= 0 ? new Interval(low * factor, high * factor) : new Interval(high * factor, low * factor);
-    }
 }

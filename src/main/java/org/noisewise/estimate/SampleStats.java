@@ -12,7 +12,7 @@ public record SampleStats(int n, double mean, double sd, double sumSquares, doub
         if (n == 0) {
             throw new IllegalArgumentException("no values");
         }
-        double mean = kahanSum(v, 1) / n;
+        double mean = kahanSum(v) / n;
         double m2 = 0;
         double m4 = 0;
         double sq = 0;
@@ -27,11 +27,11 @@ public record SampleStats(int n, double mean, double sd, double sumSquares, doub
         return new SampleStats(n, mean, sd, sq, m4 / n);
     }
 
-    private static double kahanSum(double[] v, int power) {
+    private static double kahanSum(double[] v) {
         double sum = 0;
         double c = 0;
         for (double x : v) {
-            double y = (power == 1 ? x : x * x) - c;
+            double y = x - c;
             double t = sum + y;
             c = (t - sum) - y;
             sum = t;

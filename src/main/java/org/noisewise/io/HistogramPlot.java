@@ -60,8 +60,9 @@ public final class HistogramPlot {
         plot.setColor(Color.black);
         plot.setLegend("histogram\t" + BackgroundCheck.modelName(r.channels()) + String.format(Locale.ROOT,
                 ", sigma = %.4g (ML)", sigma) + "\tGaussian, same mean and SD", Plot.TOP_RIGHT | Plot.AUTO_POSITION);
-        plot.addLabel(0.5, 0.45, String.format(Locale.ROOT, "verdict: %s   fit p = %.3f   agreement p = %.3f",
-                d.verdict().key(), r.fitP(), r.agreementP()));
+        plot.addLabel(0.45, 0.42, String.format(Locale.ROOT, "verdict: %s", d.verdict().key()));
+        plot.addLabel(0.45, 0.50, String.format(Locale.ROOT, "fit p = %.3f, agreement p = %.3f", r.fitP(),
+                r.agreementP()));
         plot.setLimits(0, hi, 0, Double.NaN);
         return plot;
     }

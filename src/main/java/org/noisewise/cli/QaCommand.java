@@ -75,6 +75,10 @@ public class QaCommand implements Callable<Integer> {
     @Option(names = "--slice", paramLabel = "N", defaultValue = "1", description = "1-based z slice (default: ${DEFAULT-VALUE}).")
     int slice;
 
+    @Option(names = "--repeats", description = "IMAGE is a plain stack of repeated acquisitions of one slice (measured by "
+            + "the repeated-acquisition method), not a stack of z slices. A hyperstack's time frames are always repeats.")
+    boolean repeats;
+
     @Option(names = "--json", description = "Write the result as JSON.")
     boolean json;
 
@@ -93,7 +97,7 @@ public class QaCommand implements Callable<Integer> {
             throw new InputException("--trends needs --log and an existing folder; '" + trends + "' is not one");
         }
         QaRunner.Options o = new QaRunner.Options(fraction, phase == null ? null : BackgroundCommand.parsePhase(phase),
-                channels, field, limits, scanner, coil, protocol, baseline, log, report, force, slice, trends);
+                channels, field, limits, scanner, coil, protocol, baseline, log, report, force, slice, trends, repeats);
         QaRunner.Outcome out = QaRunner.run(first, second, null, o, images.get(0));
         Output.print(spec.commandLine().getOut(), List.of(out.row()), json);
         if (report != null) {

@@ -31,7 +31,7 @@ import org.noisewise.report.QaRows;
  * ([Automatic] or [ROI Manager]), {@code fraction}, {@code channels} (L or auto), {@code phase},
  * {@code limits} (apply published action limits), {@code field} (tesla, 0 = from DICOM),
  * {@code scanner}, {@code coil}, {@code protocol}, {@code baseline}, {@code log} and {@code report}
- * (file paths, optional), {@code slice}.
+ * (file paths, optional), {@code slice}, {@code repeats} (a plain stack holds repeats of one slice, not z slices).
  */
 public class PhantomQaCommand implements PlugIn {
 
@@ -70,6 +70,7 @@ public class PhantomQaCommand implements PlugIn {
         gd.addStringField("Log file (CSV, optional):", "", 30);
         gd.addStringField("Report file (HTML, optional):", "", 30);
         gd.addNumericField("Slice:", imp.getSlice(), 0);
+        gd.addCheckbox("Repeats: the stack holds repeated acquisitions of one slice", false);
         gd.addHelp("<html><b>Phantom QA</b><br>Finds the phantom, places the signal, background, ghosting and "
                 + "uniformity regions, measures SNR (difference method with a second acquisition, repeated acquisitions "
                 + "for a stack of repeats, else background), PIU, NEMA non-uniformity and ghosting.<br>"
@@ -92,6 +93,7 @@ public class PhantomQaCommand implements PlugIn {
         String log = gd.getNextString().trim();
         String report = gd.getNextString().trim();
         int slice = (int) Math.round(gd.getNextNumber());
+        boolean repeats = gd.getNextBoolean();
         try {
             if (gd.invalidNumber() || !(fraction > 0 && fraction <= 1) || baseline < 2 || slice < 1) {
                 throw new InputException("the fraction must lie in (0, 1], the baseline be at least 2 sessions and the "
@@ -102,7 +104,7 @@ public class PhantomQaCommand implements PlugIn {
             QaRunner.Options o = new QaRunner.Options(fraction, phase, DialogFields.parseChannels(channelText),
                     field > 0 ? field : null, limits, scanner.isEmpty() ? null : scanner, coil.isEmpty() ? null : coil,
                     protocol.isEmpty() ? null : protocol, baseline, log.isEmpty() ? null : Path.of(log),
-                    report.isEmpty() ? null : Path.of(report), true, slice);
+                    report.isEmpty() ? null : Path.of(report), true, slice, null, repeats);
             QaRunner.Outcome out = process(imp, second, placement, o);
             Tables.toResultsTable(List.of(out.row())).show(tableTitle(imp));
             if (!manager) {

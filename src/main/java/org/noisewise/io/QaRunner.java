@@ -53,15 +53,17 @@ public final class QaRunner {
      * @param report     HTML report to write, or null
      * @param force      replace an existing report
      * @param slice      1-based z slice
+     * @param trendDir   folder for one trend PNG per metric, or null
+     * @param repeats    a plain stack (no time axis) holds repeated acquisitions of one slice rather than z slices
      */
     public record Options(double fraction, PhaseDirection phase, Integer channels, Double fieldTesla, boolean limits,
                           String scanner, String coil, String protocol, int baseline, Path log, Path report,
-                          boolean force, int slice, Path trendDir) {
+                          boolean force, int slice, Path trendDir, boolean repeats) {
         public Options(double fraction, PhaseDirection phase, Integer channels, Double fieldTesla, boolean limits,
                        String scanner, String coil, String protocol, int baseline, Path log, Path report,
                        boolean force, int slice) {
             this(fraction, phase, channels, fieldTesla, limits, scanner, coil, protocol, baseline, log, report, force,
-                    slice, null);
+                    slice, null, false);
         }
     }
 
@@ -84,22 +86,22 @@ public final class QaRunner {
         }
         int w = first.getWidth();
         int h = first.getHeight();
+        // Repeats are a hyperstack's time frames, or a plain stack's slices when the user says so;
+        // otherwise a plain stack holds z slices and one of them is measured.
+        boolean repeats = StackPlanes.hasTimeAxis(first) || (o.repeats() && first.getStackSize() > 1);
         float[][] frames;
         if (second != null) {
             ImagePlanes.requireGrayscale(second);
-            if (second.getWidth() != w || second.getHeight() != h) {
-                throw new InputException("the two acquisitions differ in size (" + w + "x" + h + " and "
-                        + second.getWidth() + "x" + second.getHeight() + "): give two scans of the same matrix");
+            if (second.getWidth() != w || second.getHeight() != h || second.getStackSize() != first.getStackSize()) {
+                throw new InputException("the two acquisitions differ in size (" + w + "x" + h + "x"
+                        + first.getStackSize() + " and " + second.getWidth() + "x" + second.getHeight() + "x"
+                        + second.getStackSize() + "): give two scans of the same matrix and slices");
             }
-            int z = Math.min(o.slice(), Math.min(first.getStackSize(), second.getStackSize()));
-            frames = new float[][] {ImagePlanes.calibratedPixels(first, StackPlanes.repeatCount(first) > 1 && StackPlanes
-                    .hasTimeAxis(first) ? StackPlanes.index(first, z, 1) : z),
-                ImagePlanes.calibratedPixels(second, StackPlanes.repeatCount(second) > 1 && StackPlanes.hasTimeAxis(second)
-                        ? StackPlanes.index(second, z, 1) : z)};
-        } else if (StackPlanes.repeatCount(first) > 1) {
+            frames = new float[][] {slicePixels(first, o.slice()), slicePixels(second, o.slice())};
+        } else if (repeats) {
             frames = StackPlanes.repeats(first, o.slice());
         } else {
-            frames = new float[][] {ImagePlanes.calibratedPixels(first, 1)};
+            frames = new float[][] {slicePixels(first, o.slice())};
         }
         Calibration cal = first.getCalibration();
         double toMm = mmPerUnit(cal.getUnit());
@@ -168,6 +170,11 @@ public final class QaRunner {
             }
         }
         return out;
+    }
+
+    /** Slice {@code z} of an image: the first time frame of a hyperstack, else stack slice z. */
+    private static float[] slicePixels(ImagePlus imp, int z) throws InputException {
+        return ImagePlanes.calibratedPixels(imp, StackPlanes.hasTimeAxis(imp) ? StackPlanes.index(imp, z, 1) : z);
     }
 
     static List<String> flags(List<QaLog.Entry> history, Map<String, String> values, int n, PhantomQa.Result r,

@@ -47,8 +47,13 @@ class QaCommandTest {
         assertTrue(o.get("uniformity_piu").getAsDouble() > 90);
         CliRunner.Result single = CliRunner.run("qa", "sample-images/aster_disk_1ch.tif", "--json");
         assertEquals("background", JsonParser.parseString(single.out()).getAsJsonObject().get("method").getAsString());
-        CliRunner.Result stack = CliRunner.run("qa", "sample-images/aster_disk_repeats.tif", "--json");
+        CliRunner.Result stack = CliRunner.run("qa", "sample-images/aster_disk_repeats.tif", "--repeats", "--json");
         assertEquals("repeated", JsonParser.parseString(stack.out()).getAsJsonObject().get("method").getAsString());
+        // without --repeats a plain stack is a stack of z slices: one slice, background method
+        CliRunner.Result slices = CliRunner.run("qa", "sample-images/aster_disk_repeats.tif", "--slice", "3", "--json");
+        JsonObject z3 = JsonParser.parseString(slices.out()).getAsJsonObject();
+        assertEquals("background", z3.get("method").getAsString());
+        assertEquals(3, z3.get("slice").getAsInt());
     }
 
     @Test

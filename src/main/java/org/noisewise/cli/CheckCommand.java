@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.concurrent.Callable;
 import org.noisewise.diagnose.BackgroundDiagnostics;
 import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Region;
 import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.HistogramPlot;
 import org.noisewise.io.ImageFiles;
@@ -77,7 +78,7 @@ public class CheckCommand implements Callable<Integer> {
         boolean plotted = false;
         for (int n : Slices.select(imp, slice)) {
             float[] px = ImagePlanes.calibratedPixels(imp, n);
-            double[] values = BackgroundValues.pooled(px, reg.background());
+            double[] values = Region.pooledMagnitudes(px, reg.background());
             BackgroundDiagnostics.Diagnosis r = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(),
                     reg.signal(), reg.background(), options);
             rows.add(MethodRows.check(image.getFileName().toString(), n, unit, r));

@@ -254,7 +254,7 @@ public class DemoCommand implements Callable<Integer> {
 
     private void check(Sample s) throws InputException {
         ImagePlus imp = open(s);
-        double[] values = BackgroundValues.pooled(ImagePlanes.calibratedPixels(imp, 1), backgroundRegions(s));
+        double[] values = Region.pooledMagnitudes(ImagePlanes.calibratedPixels(imp, 1), backgroundRegions(s));
         BackgroundCheck.Result r = BackgroundCheck.check(values, s.channels(), BackgroundValues.storage(imp));
         out.printf(Locale.ROOT, "%n%s  (%s)%n", s.file(), s.description());
         out.printf(Locale.ROOT, "  background check verdict: %s   (L = %d, fit p = %s, estimator agreement p = %s, zeros %.1f%%)%n",

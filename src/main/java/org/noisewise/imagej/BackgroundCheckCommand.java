@@ -105,7 +105,7 @@ public class BackgroundCheckCommand implements PlugIn {
         }
         List<Region> regions = RegionRoles.toRegions(background, "background", imp.getWidth(), imp.getHeight());
         float[] px = ImagePlanes.calibratedPixels(imp, slice);
-        double[] values = BackgroundValues.pooled(px, regions);
+        double[] values = Region.pooledMagnitudes(px, regions);
         Region sig = signal == null || signal.isEmpty() || background.contains(signal.get(0)) ? null
                 : RegionRoles.toRegions(signal.subList(0, 1), "signal", imp.getWidth(), imp.getHeight()).get(0);
         BackgroundDiagnostics.Diagnosis r = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(), sig,

@@ -1,20 +1,12 @@
 package org.noisewise.io;
 
 import ij.ImagePlus;
-import java.util.List;
 import org.noisewise.diagnose.BackgroundCheck;
-import org.noisewise.estimate.InputException;
-import org.noisewise.estimate.Region;
 
-/** Pooled background values and what the image's storage type implies about them. */
+/** What an image's storage type implies about its values: quantisation step and largest storable value. */
 public final class BackgroundValues {
 
     private BackgroundValues() {
-    }
-
-    /** The regions' values, pooled; see {@link Region#pooledMagnitudes}. */
-    public static double[] pooled(float[] pixels, List<Region> regions) throws InputException {
-        return Region.pooledMagnitudes(pixels, regions);
     }
 
     /**

@@ -39,7 +39,7 @@ public final class CorrectedImages {
                 progress.accept(s - 1, n);
             }
             float[] px = ImagePlanes.calibratedPixels(imp, s);
-            double sg = sigma > 0 ? sigma : BackgroundSigma.estimate(BackgroundValues.pooled(px, background), channels)
+            double sg = sigma > 0 ? sigma : BackgroundSigma.estimate(Region.pooledMagnitudes(px, background), channels)
                     .get(SigmaEstimator.ML).sigma();
             out.addSlice(imp.getStack().getSliceLabel(s),
                     new FloatProcessor(imp.getWidth(), imp.getHeight(), RicianCorrection.correct(px, sg, channels, method)));

@@ -124,7 +124,8 @@ public final class DicomSeries {
         return out;
     }
 
-    private static ImagePlus openSilently(Path f) {
+    /** Opens any ImageJ-readable file with DICOM rescaling fixed and no dialogs; null when it cannot. */
+    static ImagePlus openSilently(Path f) {
         Prefs.fixedDicomScaling = true;
         Opener o = new Opener();
         o.setSilentMode(true);

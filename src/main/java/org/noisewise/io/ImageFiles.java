@@ -1,8 +1,6 @@
 package org.noisewise.io;
 
 import ij.ImagePlus;
-import ij.Prefs;
-import ij.io.Opener;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
@@ -44,15 +42,7 @@ public final class ImageFiles {
         if (!Files.isReadable(file)) {
             throw new InputException("cannot read '" + file + "': check its permissions");
         }
-        Prefs.fixedDicomScaling = true;
-        Opener opener = new Opener();
-        opener.setSilentMode(true);
-        ImagePlus imp;
-        try {
-            imp = opener.openImage(file.toAbsolutePath().toString());
-        } catch (RuntimeException e) {
-            imp = null;
-        }
+        ImagePlus imp = DicomSeries.openSilently(file.toAbsolutePath());
         if (imp == null || imp.getWidth() == 0) {
             throw new InputException("cannot read '" + file + "' as an image: ImageJ does not recognise "
                     + "its format or the file is damaged; export it as TIFF or DICOM");

@@ -104,7 +104,8 @@ public class BackgroundCommand implements Callable<Integer> {
             float[] px = ImagePlanes.calibratedPixels(imp, n);
             BackgroundSnr.Options o = options;
             if (second != null) {
-                DifferenceSnrResult d = DifferenceSnr.analyze(px, ImagePlanes.calibratedPixels(second, n), reg.signal(),
+                DifferenceSnrResult d = DifferenceSnr.analyze(px, ImagePlanes.calibratedPixels(second, n), imp.getWidth(),
+                        reg.signal(),
                         channels == null ? 1 : channels);
                 o = options.withDifference(new BackgroundSnr.DifferenceSigma(d.sigma(), d.sigmaCi95()));
             }

@@ -222,7 +222,7 @@ public class DemoCommand implements Callable<Integer> {
 
     private void difference(Sample a, Sample b) throws InputException {
         DifferenceSnrResult r = DifferenceSnr.analyze(ImagePlanes.calibratedPixels(open(a), 1),
-                ImagePlanes.calibratedPixels(open(b), 1), region("signal", a.signal()), a.channels());
+                ImagePlanes.calibratedPixels(open(b), 1), SampleCatalog.SIZE, region("signal", a.signal()), a.channels());
         title(a);
         out.println("  with " + b.file() + "; sigma = SD(difference) / sqrt(2) over the signal region");
         line("noise sigma (a.u.)", a.sigma(), r.sigma(), ci(r.sigmaCi95().low(), r.sigmaCi95().high()));

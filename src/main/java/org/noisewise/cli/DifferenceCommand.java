@@ -72,7 +72,7 @@ public class DifferenceCommand implements Callable<Integer> {
             for (int n : Slices.select(a, slice)) {
                 rows.add(MethodRows.difference(images.get(0).getFileName().toString(),
                         images.get(1).getFileName().toString(), n, unit,
-                        DifferenceSnr.analyze(ImagePlanes.calibratedPixels(a, n), ImagePlanes.calibratedPixels(b, n),
+                        DifferenceSnr.analyze(ImagePlanes.calibratedPixels(a, n), ImagePlanes.calibratedPixels(b, n), a.getWidth(),
                                 reg.signal(), channels)));
             }
         } else {
@@ -105,7 +105,7 @@ public class DifferenceCommand implements Callable<Integer> {
         for (int z : zSlices(imp, slice)) {
             rows.add(MethodRows.difference(name + " frame " + frames.a(), name + " frame " + frames.b(), z, unit,
                     DifferenceSnr.analyze(ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, frames.a())),
-                            ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, frames.b())),
+                            ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, frames.b())), imp.getWidth(),
                             reg.signal(), channels)));
         }
         return rows;

@@ -72,7 +72,7 @@ public final class BackgroundDiagnostics {
                                      Options options) throws InputException {
         double[] values = Region.pooledMagnitudes(pixels, background);
         int n = values.length;
-        NoiseCorrelation.Result corr = NoiseCorrelation.ofBackground(pixels, width, background);
+        NoiseCorrelation.Result corr = NoiseCorrelation.ofSquares(pixels, width, background);
         double ratio = 1.0 / corr.factor();
         ChannelCount.Estimate est = ChannelCount.estimate(values, ratio);
         List<Warning> reasons = new ArrayList<>();

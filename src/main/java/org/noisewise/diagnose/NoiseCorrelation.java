@@ -11,18 +11,21 @@ import org.noisewise.estimate.Region;
  * region's mean. Background regions are measured on {@code M^2} — the quantity the maximum-likelihood
  * sigma sums — whose correlation is {@code |rho|^2} for complex noise correlation {@code rho}; so the
  * reported neighbour correlation of the noise is {@code sqrt(rho_{M^2})}. A difference image is
- * Gaussian and is measured directly.
+ * Gaussian: its values give the noise correlation and the effective count for means, its squares
+ * ({@code rho^2}) the effective count for its variance.
  *
- * <p>Effective count: {@code n_eff = n / (S_x S_y)} with {@code S = 1 + 2 sum_d rho(d)} over the lags
- * whose correlation exceeds twice its standard error (so white noise keeps {@code n_eff = n}); the
- * separable form holds for interpolation and filtering applied along rows and columns. Zero-filling
+ * <p>Effective count: {@code n_eff = n / (S_x S_y)} with {@code S = 1 + 2 sum_d rho(d)} over lags
+ * 1..{@value #MAX_LAG} in a direction whose neighbour correlation exceeds twice its standard error,
+ * else {@code S = 1} (white noise keeps {@code n_eff = n}); summing every lag rather than only the
+ * significant ones keeps the weak long-range tail of interpolation kernels. The separable form holds
+ * for interpolation and filtering applied along rows and columns. Zero-filling
  * k-space 2x in both directions gives {@code |rho(1)| = 1/(N sin(pi/2N))}, about {@code 2/pi}, in each
  * direction, and halves the independent samples per direction.
  */
 public final class NoiseCorrelation {
 
     /** The largest lag measured. */
-    public static final int MAX_LAG = 8;
+    public static final int MAX_LAG = 16;
     /** Neighbour correlation above this is worth a warning (common practice). */
     public static final double WARN_ABOVE = 0.1;
 
@@ -57,13 +60,19 @@ public final class NoiseCorrelation {
         }
     }
 
-    /** Background regions: correlation of {@code M^2}. */
-    public static Result ofBackground(float[] pixels, int width, List<Region> regions) {
+    /**
+     * Correlation of squared values: {@code M^2} in background regions, or {@code d^2} of a difference
+     * image; the effective count then fits the intervals of estimates built on sums of squares.
+     */
+    public static Result ofSquares(float[] pixels, int width, List<Region> regions) {
         return measure(pixels, width, regions, true);
     }
 
-    /** A difference image (or any Gaussian noise): correlation of the values. */
-    public static Result ofDifference(float[] difference, int width, List<Region> regions) {
+    /**
+     * Correlation of the values themselves (a difference image, Gaussian noise); the effective count
+     * then fits the standard error of a mean.
+     */
+    public static Result ofValues(float[] difference, int width, List<Region> regions) {
         return measure(difference, width, regions, false);
     }
 
@@ -105,22 +114,26 @@ public final class NoiseCorrelation {
         var /= Math.max(1, n);
         double[] rx = new double[MAX_LAG];
         double[] ry = new double[MAX_LAG];
-        double sumX = 0;
-        double sumY = 0;
         for (int d = 0; d < MAX_LAG; d++) {
             rx[d] = cx[d] > 0 && var > 0 ? sxx[d] / cx[d] / var : 0.0;
             ry[d] = cy[d] > 0 && var > 0 ? syy[d] / cy[d] / var : 0.0;
-            if (cx[d] > 0 && rx[d] > 2.0 / Math.sqrt(cx[d])) {
-                sumX += rx[d];
-            }
-            if (cy[d] > 0 && ry[d] > 2.0 / Math.sqrt(cy[d])) {
-                sumY += ry[d];
-            }
         }
-        double factor = Math.max(1.0, 1 + 2 * sumX) * Math.max(1.0, 1 + 2 * sumY);
         boolean sigX = cx[0] > 0 && rx[0] > 2.0 / Math.sqrt(cx[0]);
         boolean sigY = cy[0] > 0 && ry[0] > 2.0 / Math.sqrt(cy[0]);
+        double factor = sum(rx, sigX) * sum(ry, sigY);
         return new Result(rx, ry, toNoise(rx[0], squared), toNoise(ry[0], squared), factor, sigX, sigY);
+    }
+
+    /** {@code S = 1 + 2 sum of lags 1..MAX_LAG} once neighbours correlate significantly, else 1 (white noise). */
+    private static double sum(double[] rho, boolean significant) {
+        if (!significant) {
+            return 1.0;
+        }
+        double s = 0;
+        for (double r : rho) {
+            s += r;
+        }
+        return Math.max(1.0, 1 + 2 * s);
     }
 
     private static double value(float v, boolean squared) {

@@ -4,6 +4,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import org.apache.commons.math3.distribution.ChiSquaredDistribution;
+import org.noisewise.diagnose.NoiseCorrelation;
 
 /**
  * The two-acquisition (NEMA MS 1 difference) method: two identical acquisitions close in time,
@@ -12,7 +13,8 @@ import org.apache.commons.math3.distribution.ChiSquaredDistribution;
  * repeat, masking and filtering of the background do not enter, which is why it stays valid where
  * background methods fail (Dietrich et al. 2007, JMRI 26:375).
  *
- * <p>The sigma interval treats the difference as Gaussian: {@code (n-1) s^2 / var ~ chi^2(n-1)}.
+ * <p>The sigma interval treats the difference as Gaussian: {@code (n-1) s^2 / var ~ chi^2(n-1)}, with
+ * {@code n} the effective pixel count when the difference image shows spatially correlated noise.
  * At low SNR the magnitude SD is below sigma (Rice), so the method then underestimates sigma and a
  * warning says so.
  */
@@ -29,10 +31,11 @@ public final class DifferenceSnr {
     /**
      * @param first    image 1, calibrated values
      * @param second   image 2, same size
+     * @param width    plane width, for the spatial correlation of the difference image
      * @param signal   the signal region
      * @param channels receive channels (only for the low-SNR bias statement)
      */
-    public static DifferenceSnrResult analyze(float[] first, float[] second, Region signal, int channels)
+    public static DifferenceSnrResult analyze(float[] first, float[] second, int width, Region signal, int channels)
             throws InputException {
         if (first.length != second.length) {
             throw new InputException("the two acquisitions differ in size (" + first.length + " and "
@@ -61,13 +64,28 @@ public final class DifferenceSnr {
             throw new InputException("the two acquisitions are identical in region '" + signal.name()
                     + "': choose two separate acquisitions, not the same image twice");
         }
+        // Correlated noise (interpolation, zero-filling, filtering) is measured on the difference image:
+        // its squares set the degrees of freedom of the variance, its values the standard errors of means.
+        float[] diff = new float[first.length];
+        for (int i = 0; i < diff.length; i++) {
+            diff[i] = first[i] - second[i];
+        }
+        NoiseCorrelation.Result values = NoiseCorrelation.ofValues(diff, width, List.of(signal));
+        double nVar = Math.max(2.0, NoiseCorrelation.ofSquares(diff, width, List.of(signal)).effective(n));
+        double nMean = Math.max(2.0, values.effective(n));
         double sigma = sd.sd() / Math.sqrt(2.0);
-        ChiSquaredDistribution chi2 = new ChiSquaredDistribution(null, n - 1.0);
-        Interval ci = new Interval(sigma * Math.sqrt((n - 1.0) / chi2.inverseCumulativeProbability(0.975)),
-                sigma * Math.sqrt((n - 1.0) / chi2.inverseCumulativeProbability(0.025)));
+        ChiSquaredDistribution chi2 = new ChiSquaredDistribution(null, nVar - 1.0);
+        Interval ci = new Interval(sigma * Math.sqrt((nVar - 1.0) / chi2.inverseCumulativeProbability(0.975)),
+                sigma * Math.sqrt((nVar - 1.0) / chi2.inverseCumulativeProbability(0.025)));
         double snr = sa.mean() / sigma;
-        Interval snrCi = SnrMath.snrInterval(sa.mean(), sa.standardError(), sigma, ci);
-        double z = sd.mean() / sd.standardError();
+        Interval snrCi = SnrMath.snrInterval(sa.mean(), sa.sd() / Math.sqrt(nMean), sigma, ci);
+        double z = sd.mean() / (sd.sd() / Math.sqrt(nMean));
+        if (values.worthWarning()) {
+            warnings.add(new Warning("correlated_noise", String.format(Locale.ROOT,
+                    "neighbouring pixels' noise correlates (%.2f along x, %.2f along y in the difference image): "
+                            + "interpolation, zero-filling or filtering; intervals use an effective pixel count of "
+                            + "%.0f of %d", values.neighbourX(), values.neighbourY(), nVar, n)));
+        }
         if (Math.abs(z) > DRIFT_Z) {
             warnings.add(new Warning("drift", String.format(Locale.ROOT,
                     "the mean difference between the acquisitions is %.3g (%.1f standard errors, %.2f%% of the "
@@ -85,6 +103,7 @@ public final class DifferenceSnr {
             warnings.add(new Warning("low_snr", low.message()
                     + " The difference of two magnitude images also underestimates sigma at this SNR."));
         }
-        return new DifferenceSnrResult(sa, savg.mean(), sd.mean(), sigma, ci, snr, snrCi, channels, warnings);
+        return new DifferenceSnrResult(sa, savg.mean(), sd.mean(), sigma, ci, snr, snrCi, channels, values.neighbourX(),
+                values.neighbourY(), nVar, warnings);
     }
 }

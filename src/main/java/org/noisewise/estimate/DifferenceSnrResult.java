@@ -13,10 +13,14 @@ import java.util.List;
  * @param snr            signal mean / sigma
  * @param snrCi95        interval of the SNR
  * @param channels       receive channels assumed for the low-SNR statement
+ * @param correlationX   noise correlation of horizontal neighbours in the difference image
+ * @param correlationY   noise correlation of vertical neighbours
+ * @param effectivePixels effective pixel count behind the sigma interval
  * @param warnings       cautions
  */
 public record DifferenceSnrResult(SampleStats signal, double averageMean, double meanDifference, double sigma,
                                   Interval sigmaCi95, double snr, Interval snrCi95, int channels,
+                                  double correlationX, double correlationY, double effectivePixels,
                                   List<Warning> warnings) {
     public DifferenceSnrResult {
         warnings = List.copyOf(warnings);

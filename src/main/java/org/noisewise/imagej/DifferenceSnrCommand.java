@@ -126,7 +126,7 @@ public class DifferenceSnrCommand implements PlugIn {
             float[] b = ImagePlanes.calibratedPixels(second, n);
             for (Region reg : regions) {
                 rows.add(MethodRows.difference(first.getTitle(), second.getTitle(), n, unit,
-                        DifferenceSnr.analyze(a, b, reg, channels)).add("region", "Region", reg.name()));
+                        DifferenceSnr.analyze(a, b, first.getWidth(), reg, channels)).add("region", "Region", reg.name()));
             }
         }
         return Tables.toResultsTable(rows);
@@ -154,7 +154,7 @@ public class DifferenceSnrCommand implements PlugIn {
             float[] pb = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, b));
             for (Region reg : regions) {
                 rows.add(MethodRows.difference(imp.getTitle() + " frame " + a, imp.getTitle() + " frame " + b, z, unit,
-                        DifferenceSnr.analyze(pa, pb, reg, channels)).add("region", "Region", reg.name()));
+                        DifferenceSnr.analyze(pa, pb, imp.getWidth(), reg, channels)).add("region", "Region", reg.name()));
             }
         }
         return Tables.toResultsTable(rows);

@@ -93,7 +93,7 @@ public final class PhantomQa {
         }
         double signalMean = SampleStats.of(signal.values(first)).mean();
         if (in.frames().length == 2) {
-            DifferenceSnrResult d = DifferenceSnr.analyze(first, in.frames()[1], signal,
+            DifferenceSnrResult d = DifferenceSnr.analyze(first, in.frames()[1], w, signal,
                     in.channels() == null ? 1 : in.channels());
             method = "difference";
             sigma = d.sigma();

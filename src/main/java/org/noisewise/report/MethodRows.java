@@ -36,6 +36,9 @@ public final class MethodRows {
                 .add("sigma_ci95[1]", "Sigma 95% high" + u, r.sigmaCi95().high())
                 .add("channels", "Channels", r.channels())
                 .add("pixels.signal", "Signal pixels", r.signal().n())
+                .add("noise_correlation.x", "Noise correlation x", r.correlationX())
+                .add("noise_correlation.y", "Noise correlation y", r.correlationY())
+                .add("effective_pixels", "Effective pixels", r.effectivePixels())
                 .add("warnings", "Warnings", r.warnings());
     }
 

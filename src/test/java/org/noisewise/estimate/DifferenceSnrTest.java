@@ -29,7 +29,7 @@ class DifferenceSnrTest {
         float[] a = {10, 12, 11, 15};
         float[] b = {9, 13, 11, 12};
         // d = 1, -1, 0, 3: mean 0.75, sum of squared deviations 8.75, SD = sqrt(8.75/3)
-        DifferenceSnrResult r = DifferenceSnr.analyze(a, b, all(4), 1);
+        DifferenceSnrResult r = DifferenceSnr.analyze(a, b, a.length, all(4), 1);
         assertEquals(Math.sqrt(8.75 / 3) / Math.sqrt(2), r.sigma(), 1e-12);
         assertEquals(12.0, r.signal().mean(), 1e-12);
         assertEquals(11.625, r.averageMean(), 1e-12);
@@ -47,7 +47,7 @@ class DifferenceSnrTest {
             double sigma = 5.0;
             float[] a = rice(rng, 10000, 100, sigma, 1);
             float[] b = rice(rng, 10000, 100, sigma, 1);
-            DifferenceSnrResult r = DifferenceSnr.analyze(a, b, all(10000), 1);
+            DifferenceSnrResult r = DifferenceSnr.analyze(a, b, a.length, all(10000), 1);
             assertEquals(sigma, r.sigma(), 0.03 * sigma, "seed " + seed);
             assertTrue(r.warnings().isEmpty(), r.warnings().toString());
         }
@@ -63,7 +63,7 @@ class DifferenceSnrTest {
         for (int t = 0; t < trials; t++) {
             float[] a = rice(rng, 400, 80, 4, 1);
             float[] b = rice(rng, 400, 80, 4, 1);
-            DifferenceSnrResult r = DifferenceSnr.analyze(a, b, all(400), 1);
+            DifferenceSnrResult r = DifferenceSnr.analyze(a, b, a.length, all(400), 1);
             covered += r.sigmaCi95().contains(4.0) ? 1 : 0;
             sum += r.sigma();
         }
@@ -78,26 +78,26 @@ class DifferenceSnrTest {
         SplittableRandom rng = new SplittableRandom(5);
         float[] a = rice(rng, 2500, 200, 4, 1);
         float[] b = rice(rng, 2500, 200, 4, 1);
-        assertTrue(DifferenceSnr.analyze(a, b, all(2500), 1).warnings().isEmpty());
+        assertTrue(DifferenceSnr.analyze(a, b, a.length, all(2500), 1).warnings().isEmpty());
         float[] drifted = b.clone();
         for (int i = 0; i < drifted.length; i++) {
             drifted[i] *= 0.99f;
         }
-        DifferenceSnrResult r = DifferenceSnr.analyze(a, drifted, all(2500), 1);
+        DifferenceSnrResult r = DifferenceSnr.analyze(a, drifted, a.length, all(2500), 1);
         assertEquals("drift", r.warnings().get(0).code());
-        DifferenceSnrResult small = DifferenceSnr.analyze(a, b, all(50), 1);
+        DifferenceSnrResult small = DifferenceSnr.analyze(a, b, a.length, all(50), 1);
         assertTrue(small.warnings().stream().anyMatch(w -> w.code().equals("few_pixels")));
         float[] lowA = rice(rng, 2500, 6, 4, 1);
         float[] lowB = rice(rng, 2500, 6, 4, 1);
-        assertTrue(DifferenceSnr.analyze(lowA, lowB, all(2500), 1).warnings().stream()
+        assertTrue(DifferenceSnr.analyze(lowA, lowB, lowA.length, all(2500), 1).warnings().stream()
                 .anyMatch(w -> w.code().equals("low_snr") && w.message().contains("underestimates sigma")));
     }
 
     @Test
     void badInput() {
         float[] a = new float[100];
-        assertThrows(InputException.class, () -> DifferenceSnr.analyze(a, new float[99], all(50), 1));
-        assertThrows(InputException.class, () -> DifferenceSnr.analyze(a, a.clone(), all(50), 1));
-        assertThrows(InputException.class, () -> DifferenceSnr.analyze(a, a, null, 1));
+        assertThrows(InputException.class, () -> DifferenceSnr.analyze(a, new float[99], a.length, all(50), 1));
+        assertThrows(InputException.class, () -> DifferenceSnr.analyze(a, a.clone(), a.length, all(50), 1));
+        assertThrows(InputException.class, () -> DifferenceSnr.analyze(a, a, a.length, null, 1));
     }
 }

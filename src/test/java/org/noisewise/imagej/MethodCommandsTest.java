@@ -89,7 +89,7 @@ class MethodCommandsTest {
         ResultsTable rt = ResultsTable.getResultsTable(DifferenceSnrCommand.tableTitle(a));
         assertNotNull(rt);
         DifferenceSnrResult core = DifferenceSnr.analyze(ImagePlanes.calibratedPixels(a, 1),
-                ImagePlanes.calibratedPixels(b, 1), Region.rectangle("s", 38, 38, 20, 20, 96, 96), 1);
+                ImagePlanes.calibratedPixels(b, 1), 96, Region.rectangle("s", 38, 38, 20, 20, 96, 96), 1);
         assertEquals(core.sigma(), rt.getValue("Sigma [a.u.]", 0), 1e-9);
         assertEquals(core.snr(), rt.getValue("SNR", 0), 1e-9);
         assertEquals("acq2", rt.getStringValue("Image 2", 0));

@@ -11,11 +11,13 @@ import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import java.util.stream.Stream;
+import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.io.DicomSeries;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.io.ImageWriter;
+import org.noisewise.measure.Progress;
 import org.noisewise.report.Formats;
 import org.noisewise.report.ResultRow;
 import picocli.CommandLine.Command;
@@ -68,7 +70,7 @@ public class BatchCommand implements Callable<Integer> {
             description = "difference: the two frames of each stack (default: ${DEFAULT-VALUE}).")
     FramePair frames;
 
-    @Option(names = "--rician", description = "repeat: Koay-Basser correction of the summary.")
+    @Option(names = "--rician", description = "repeat: accepted for compatibility; the correction is always applied.")
     boolean rician;
 
     @Option(names = "--slice", paramLabel = "N", description = "1-based slice (z) of each image (default: every slice).")
@@ -93,12 +95,8 @@ public class BatchCommand implements Callable<Integer> {
             throw new InputException("'" + folder + "' is not a folder: give the folder to walk");
         }
         Integer channels = channelOption.get(method == Method.background);
-        SigmaEstimator est;
-        try {
-            est = SigmaEstimator.parse(estimator);
-        } catch (IllegalArgumentException e) {
-            throw new InputException(e.getMessage());
-        }
+        SigmaEstimator est = BackgroundCommand.parseEstimator(estimator);
+        PhaseDirection dir = phase == null ? null : BackgroundCommand.parsePhase(phase);
         if (csv != null) {
             ImageWriter.checkWritable(csv, force);
         }
@@ -116,12 +114,12 @@ public class BatchCommand implements Callable<Integer> {
                 ImagePlus imp = item.series() != null ? DicomSeries.open(item.series(), item.name())
                         : ImageFiles.open(item.path());
                 List<ResultRow> r = switch (method) {
-                    case background -> BackgroundCommand.rows(imp, item.name(), regions, channels, est, phase, slice,
-                            null);
-                    case difference -> DifferenceCommand.frameRows(imp, item.name(), regions, frames,
-                            channels == null ? 1 : channels, slice);
-                    case repeat -> RepeatCommand.summaryRows(imp, item.name(), regions, rician,
-                            channels == null ? 1 : channels, slice);
+                    case background -> BackgroundCommand.measure(imp, item.name(), regions, channels, est, dir, slice,
+                            null, Progress.NONE).rows();
+                    case difference -> DifferenceCommand.frames(imp, item.name(), regions, frames,
+                            channels == null ? 1 : channels, slice, Progress.NONE).rows();
+                    case repeat -> RepeatCommand.summary(imp, item.name(), regions, channels == null ? 1 : channels,
+                            slice, Progress.NONE).rows();
                 };
                 for (ResultRow row : r) {
                     rows.add(row.add("status", "Status", "ok").add("error", "Error", ""));

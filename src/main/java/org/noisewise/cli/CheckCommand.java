@@ -2,20 +2,13 @@ package org.noisewise.cli;
 
 import ij.ImagePlus;
 import java.nio.file.Path;
-import java.util.ArrayList;
-import java.util.List;
 import java.util.concurrent.Callable;
-import org.noisewise.diagnose.BackgroundDiagnostics;
 import org.noisewise.estimate.InputException;
-import org.noisewise.estimate.Region;
-import org.noisewise.io.BackgroundValues;
-import org.noisewise.io.HistogramPlot;
 import org.noisewise.io.ImageFiles;
-import org.noisewise.io.ImageMetadata;
-import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.ImageWriter;
-import org.noisewise.report.MethodRows;
-import org.noisewise.report.ResultRow;
+import org.noisewise.measure.CheckMeasure;
+import org.noisewise.measure.Measurement;
+import org.noisewise.measure.Roles;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -56,6 +49,9 @@ public class CheckCommand implements Callable<Integer> {
             description = "Phase-encoding direction for the ghosting check (default: DICOM 0018,1312, else unknown).")
     String phase;
 
+    @Mixin
+    ProgressOption progressOption;
+
     @Option(names = "--json", description = "Write JSON (an object, or an array for several slices).")
     boolean json;
 
@@ -63,32 +59,19 @@ public class CheckCommand implements Callable<Integer> {
     public Integer call() throws InputException {
         Integer channels = channelOption.get(true);
         if (plot != null) {
-            ImageWriter.checkWritable(plot, force);
+            ImageWriter.checkWritable(plot, force, image);
         }
         ImagePlus imp = ImageFiles.open(image);
-        RegionOptions.Resolved reg = regions.resolve(imp.getWidth(), imp.getHeight());
-        if (reg.background().isEmpty()) {
-            throw RegionOptions.noBackground();
+        Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
+        RegionOptions.require(roles, false, false, true);
+        Measurement m = CheckMeasure.run(imp, image.getFileName().toString(), roles,
+                new CheckMeasure.Options(channels, phase == null ? null : BackgroundCommand.parsePhase(phase)),
+                Slices.select(imp, slice), progressOption.sink(spec.commandLine().getErr(), "check"));
+        if (plot != null) {
+            ImageWriter.savePng(m.plots().get(0).getImagePlus(), plot, force, image);
         }
-        String unit = ImagePlanes.valueUnit(imp);
-        BackgroundDiagnostics.Options options = new BackgroundDiagnostics.Options(channels,
-                phase == null ? ImageMetadata.phaseDirection(imp) : BackgroundCommand.parsePhase(phase),
-                BackgroundValues.storage(imp));
-        List<ResultRow> rows = new ArrayList<>();
-        boolean plotted = false;
-        for (int n : Slices.select(imp, slice)) {
-            float[] px = ImagePlanes.calibratedPixels(imp, n);
-            double[] values = Region.pooledMagnitudes(px, reg.background());
-            BackgroundDiagnostics.Diagnosis r = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(),
-                    reg.signal(), reg.background(), options);
-            rows.add(MethodRows.check(image.getFileName().toString(), n, unit, r));
-            if (plot != null && !plotted) {
-                ImageWriter.savePng(HistogramPlot.build("Background histogram - " + image.getFileName(), values, r, unit)
-                        .getImagePlus(), plot, force);
-                plotted = true;
-            }
-        }
-        Output.print(spec.commandLine().getOut(), rows, json);
+        Output.notes(spec.commandLine().getErr(), "check", m.notes());
+        Output.print(spec.commandLine().getOut(), m.rows(), json);
         return 0;
     }
 }

@@ -9,8 +9,9 @@ import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.noisewise.diagnose.BackgroundCheck;
-import org.noisewise.estimate.BackgroundSnr;
-import org.noisewise.estimate.BackgroundSnrResult;
+import org.noisewise.diagnose.BackgroundSnr;
+import org.noisewise.diagnose.BackgroundSnrResult;
+import org.noisewise.estimate.CorrectedSnr;
 import org.noisewise.estimate.DifferenceSnr;
 import org.noisewise.estimate.DifferenceSnrResult;
 import org.noisewise.estimate.InputException;
@@ -23,8 +24,8 @@ import org.noisewise.estimate.Warning;
 import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.io.ImagePlanes;
-import org.noisewise.io.QaRunner;
-import org.noisewise.io.StackPlanes;
+import org.noisewise.io.RepeatedMaps;
+import org.noisewise.measure.QaMeasure;
 import org.noisewise.sample.SampleCatalog;
 import org.noisewise.sample.SampleCatalog.Rect;
 import org.noisewise.sample.SampleCatalog.Sample;
@@ -75,7 +76,7 @@ public class DemoCommand implements Callable<Integer> {
         }
         heading("2. Two acquisitions (NEMA difference method)");
         difference(SampleCatalog.first(Use.PAIR_FIRST), SampleCatalog.first(Use.PAIR_SECOND));
-        heading("3. Repeated acquisitions, with and without Rician (Koay-Basser) correction");
+        heading("3. Repeated acquisitions, corrected for magnitude bias (Koay-Basser)");
         repeated(SampleCatalog.first(Use.REPEATS));
         heading("4. Background noise check: is the background fit for the background method?");
         check(SampleCatalog.first(Use.BACKGROUND));
@@ -103,7 +104,7 @@ public class DemoCommand implements Callable<Integer> {
         } catch (java.io.IOException e) {
             throw new InputException("cannot prepare the demo folder '" + outDir + "': " + e.getMessage());
         }
-        QaRunner.Options history = new QaRunner.Options(0.75, null, 1, 1.5, true, "Aster", "head", "weekly uniformity",
+        QaMeasure.Options history = new QaMeasure.Options(0.75, null, 1, 1.5, true, "Aster", "head", "weekly uniformity",
                 5, log, null, true, 1);
         java.util.SplittableRandom drift = new java.util.SplittableRandom(7);
         for (int week = 1; week <= 6; week++) {
@@ -123,13 +124,13 @@ public class DemoCommand implements Callable<Integer> {
                 pair[k].setProperty("Info", "0008,0022  Acquisition Date: " + date
                         + "\n0008,0032  Acquisition Time: 083000\n");
             }
-            QaRunner.run(pair[0], pair[1], null, history, null);
+            QaMeasure.run(pair[0], pair[1], null, history, null);
         }
         Sample a = SampleCatalog.first(Use.PAIR_FIRST);
         Sample b = SampleCatalog.first(Use.PAIR_SECOND);
-        QaRunner.Options now = new QaRunner.Options(0.75, null, 1, 1.5, true, "Aster", "head", "weekly uniformity",
+        QaMeasure.Options now = new QaMeasure.Options(0.75, null, 1, 1.5, true, "Aster", "head", "weekly uniformity",
                 5, log, report, true, 1);
-        QaRunner.Outcome o = QaRunner.run(open(a), open(b), null, now, samples.resolve(a.file()));
+        QaMeasure.Outcome o = QaMeasure.run(open(a), open(b), null, now, samples.resolve(a.file()));
         var r = o.result();
         out.printf(Locale.ROOT, "%n%s + %s  (week 7; weeks 1-6 are an invented history in the log)%n", a.file(), b.file());
         out.printf(Locale.ROOT, "  SNR (%s method) %.2f [%.2f, %.2f], true %.2f; verdict %s%n", r.method(), r.snr(),
@@ -198,10 +199,13 @@ public class DemoCommand implements Callable<Integer> {
         BackgroundSnrResult r = BackgroundSnr.analyze(px, SampleCatalog.SIZE, SampleCatalog.SIZE, signal, bg,
                 new BackgroundSnr.Options(s.channels(), SigmaEstimator.ML));
         SigmaEstimate sig = r.sigma();
+        CorrectedSnr f = r.figures();
         title(s);
         line("noise sigma, L = " + s.channels() + " (a.u.)", s.sigma(), sig.sigma(), ci(sig.ci95().low(), sig.ci95().high()));
-        line("SNR", s.trueSnr(), r.snr(), ci(r.snrCi95().low(), r.snrCi95().high()));
-        double hand = r.signal().mean() / r.background().sd();
+        line("SNR (corrected)", s.trueSnr(), f.snr(), ci(f.snrCi95().low(), f.snrCi95().high()));
+        line("SNR plain (signal mean / sigma)", s.trueSnr(), f.magnitudeSnr(),
+                String.format(Locale.ROOT, "(%+.1f%%: magnitude bias)", 100 * (f.magnitudeSnr() / s.trueSnr() - 1)));
+        double hand = r.signal().stats().mean() / r.background().sd();
         line("hand method S / SD(air)", s.trueSnr(), hand,
                 String.format(Locale.ROOT, "(%+.0f%% off)", 100 * (hand / s.trueSnr() - 1)));
         if (s.channels() > 1) {
@@ -215,7 +219,7 @@ public class DemoCommand implements Callable<Integer> {
             BackgroundSnrResult auto = BackgroundSnr.analyze(px, SampleCatalog.SIZE, SampleCatalog.SIZE, signal, bg,
                     new BackgroundSnr.Options(null, SigmaEstimator.ML, null, null));
             var ce = auto.diagnosis().channelEstimate();
-            line("channels estimated (--channels auto)", s.channels(), ce.channels(), ci(ce.low(), ce.high()));
+            line("channels estimated (auto)", s.channels(), ce.channels(), ci(ce.low(), ce.high()));
         }
         warnings(r.warnings());
     }
@@ -223,39 +227,43 @@ public class DemoCommand implements Callable<Integer> {
     private void difference(Sample a, Sample b) throws InputException {
         DifferenceSnrResult r = DifferenceSnr.analyze(ImagePlanes.calibratedPixels(open(a), 1),
                 ImagePlanes.calibratedPixels(open(b), 1), SampleCatalog.SIZE, region("signal", a.signal()), a.channels());
+        CorrectedSnr f = r.figures();
         title(a);
-        out.println("  with " + b.file() + "; sigma = SD(difference) / sqrt(2) over the signal region");
-        line("noise sigma (a.u.)", a.sigma(), r.sigma(), ci(r.sigmaCi95().low(), r.sigmaCi95().high()));
-        line("SNR", a.trueSnr(), r.snr(), ci(r.snrCi95().low(), r.snrCi95().high()));
+        out.println("  with " + b.file() + "; magnitude SD = SD(difference) / sqrt(2) over the signal region");
+        line("noise sigma (corrected, a.u.)", a.sigma(), f.sigma(), ci(f.sigmaCi95().low(), f.sigmaCi95().high()));
+        line("SNR (corrected)", a.trueSnr(), f.snr(), ci(f.snrCi95().low(), f.snrCi95().high()));
+        line("SNR plain (NEMA sqrt2 S / SD diff)", a.trueSnr(), r.magnitudeSnr(),
+                ci(r.magnitudeSnrCi95().low(), r.magnitudeSnrCi95().high()));
         warnings(r.warnings());
     }
 
     private void repeated(Sample s) throws InputException {
         ImagePlus imp = open(s);
-        RepeatedAcquisitions.Maps m = RepeatedAcquisitions.maps(StackPlanes.repeats(imp, 1), imp.getWidth(),
-                imp.getHeight(), null);
+        RepeatedAcquisitions.Maps m = RepeatedMaps.compute(imp, 1);
         Region signal = region("signal", s.signal());
-        RepeatedSnrResult raw = RepeatedAcquisitions.summarize(m, signal, false, s.channels());
-        RepeatedSnrResult cor = RepeatedAcquisitions.summarize(m, signal, true, s.channels());
+        RepeatedSnrResult r = RepeatedAcquisitions.summarize(m, RepeatedMaps.frames(imp, 1), signal, s.channels());
+        CorrectedSnr f = r.figures();
         title(s);
-        out.println("  " + m.repeats() + " repeats; sigma = sqrt(region mean of per-pixel variances)");
-        line("signal, raw magnitude mean (a.u.)", s.amplitude(), raw.signalMean(),
-                String.format(Locale.ROOT, "(%+.0f%%: Rician bias)", 100 * (raw.signalMean() / s.amplitude() - 1)));
-        line("signal, Koay-Basser corrected", s.amplitude(), cor.rician().amplitude(),
-                String.format(Locale.ROOT, "(%+.1f%%)", 100 * (cor.rician().amplitude() / s.amplitude() - 1)));
-        line("noise sigma, raw pooled SD", s.sigma(), raw.sigma(), ci(raw.sigmaCi95().low(), raw.sigmaCi95().high()));
-        line("noise sigma, corrected", s.sigma(), cor.rician().sigma(), "");
-        line("SNR, raw", s.trueSnr(), raw.snr(), ci(raw.snrCi95().low(), raw.snrCi95().high()));
-        line("SNR, corrected", s.trueSnr(), cor.correctedSnr(), "");
-        line("mean of the SNR map (biased)", s.trueSnr(), raw.snrMapMean(),
-                String.format(Locale.ROOT, "(expected %.2fx the raw SNR for K = %d)", raw.snrMapBias(), m.repeats()));
-        warnings(raw.warnings());
+        out.println("  " + m.repeats() + " repeats; magnitude SD = sqrt(region mean of per-pixel variances)");
+        line("signal, magnitude mean (a.u.)", s.amplitude(), r.signalMean(),
+                String.format(Locale.ROOT, "(%+.0f%%: Rician bias)", 100 * (r.signalMean() / s.amplitude() - 1)));
+        line("signal amplitude (corrected)", s.amplitude(), f.amplitude(), ci(f.amplitudeCi95().low(),
+                f.amplitudeCi95().high()));
+        line("noise sigma, plain pooled SD", s.sigma(), r.sigmaMagnitude(), String.format(Locale.ROOT,
+                "(%+.0f%%)", 100 * (r.sigmaMagnitude() / s.sigma() - 1)));
+        line("noise sigma (corrected)", s.sigma(), f.sigma(), ci(f.sigmaCi95().low(), f.sigmaCi95().high()));
+        line("SNR plain", s.trueSnr(), r.magnitudeSnr(), ci(r.magnitudeSnrCi95().low(), r.magnitudeSnrCi95().high()));
+        line("SNR (corrected)", s.trueSnr(), f.snr(), ci(f.snrCi95().low(), f.snrCi95().high()));
+        line("mean of the SNR map (biased)", s.trueSnr(), r.snrMapMean(),
+                String.format(Locale.ROOT, "(expected %.2fx the plain SNR for K = %d)", r.snrMapBias(), m.repeats()));
+        warnings(r.warnings());
     }
 
     private void check(Sample s) throws InputException {
         ImagePlus imp = open(s);
-        double[] values = Region.pooledMagnitudes(ImagePlanes.calibratedPixels(imp, 1), backgroundRegions(s));
-        BackgroundCheck.Result r = BackgroundCheck.check(values, s.channels(), BackgroundValues.storage(imp));
+        BackgroundCheck.Result r = BackgroundCheck.check(org.noisewise.estimate.BackgroundNoise.measure(
+                ImagePlanes.calibratedPixels(imp, 1), SampleCatalog.SIZE, backgroundRegions(s)), s.channels(),
+                BackgroundValues.storage(imp));
         out.printf(Locale.ROOT, "%n%s  (%s)%n", s.file(), s.description());
         out.printf(Locale.ROOT, "  background check verdict: %s   (L = %d, fit p = %s, estimator agreement p = %s, zeros %.1f%%)%n",
                 r.verdict().key(), s.channels(), fmt(r.fitP()), fmt(r.agreementP()), 100 * r.zeroFraction());

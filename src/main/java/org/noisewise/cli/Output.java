@@ -6,7 +6,7 @@ import java.util.List;
 import org.noisewise.report.Formats;
 import org.noisewise.report.ResultRow;
 
-/** Writes result rows to stdout as an aligned table or JSON. */
+/** Writes result rows to stdout as an aligned table or JSON, and notes to stderr. */
 final class Output {
 
     private Output() {
@@ -26,5 +26,13 @@ final class Output {
             out.print(Formats.alignedText(rows));
         }
         out.flush();
+    }
+
+    /** What the measurement chose for the user, one "note:" line each on stderr. */
+    static void notes(PrintWriter err, String command, List<String> notes) {
+        for (String n : notes) {
+            err.println(command + ": note: " + n);
+        }
+        err.flush();
     }
 }

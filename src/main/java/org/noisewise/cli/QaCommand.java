@@ -6,7 +6,7 @@ import java.util.List;
 import java.util.concurrent.Callable;
 import org.noisewise.estimate.InputException;
 import org.noisewise.io.ImageFiles;
-import org.noisewise.io.QaRunner;
+import org.noisewise.measure.QaMeasure;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -96,9 +96,9 @@ public class QaCommand implements Callable<Integer> {
         if (trends != null && (log == null || !java.nio.file.Files.isDirectory(trends))) {
             throw new InputException("--trends needs --log and an existing folder; '" + trends + "' is not one");
         }
-        QaRunner.Options o = new QaRunner.Options(fraction, phase == null ? null : BackgroundCommand.parsePhase(phase),
+        QaMeasure.Options o = new QaMeasure.Options(fraction, phase == null ? null : BackgroundCommand.parsePhase(phase),
                 channels, field, limits, scanner, coil, protocol, baseline, log, report, force, slice, trends, repeats);
-        QaRunner.Outcome out = QaRunner.run(first, second, null, o, images.get(0));
+        QaMeasure.Outcome out = QaMeasure.run(first, second, null, o, images.get(0));
         Output.print(spec.commandLine().getOut(), List.of(out.row()), json);
         if (report != null) {
             spec.commandLine().getErr().println("qa: wrote report " + report);

@@ -8,6 +8,7 @@ import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.io.RoiRegions;
 import org.noisewise.io.RoleNames;
+import org.noisewise.measure.Roles;
 import picocli.CommandLine.Option;
 
 /** The region options shared by the commands: rectangles/ovals by coordinates and ImageJ ROI files. */
@@ -15,8 +16,8 @@ public class RegionOptions {
 
     @Option(names = "--signal", paramLabel = "x,y,w,h", converter = RegionConverter.class,
             description = "Signal region: rectangle x,y,w,h in pixels (top-left corner, as ImageJ reports it) "
-                    + "or oval:x,y,w,h.")
-    RegionSpec signal;
+                    + "or oval:x,y,w,h; repeat for several (difference, repeat).")
+    List<RegionSpec> signal = new ArrayList<>();
 
     @Option(names = "--background", paramLabel = "x,y,w,h", converter = RegionConverter.class,
             description = "Background region in air; repeat for several regions (pooled).")
@@ -27,12 +28,9 @@ public class RegionOptions {
                     + "background.../bg.../air.../noise...")
     Path rois;
 
-    /** The signal region and background regions, checked against the image size. */
-    public record Resolved(Region signal, List<Region> background) {
-    }
-
-    Resolved resolve(int width, int height) throws InputException {
-        Region sig = null;
+    /** The regions by role, checked against the image size. */
+    Roles resolve(int width, int height) throws InputException {
+        List<Region> sig = new ArrayList<>();
         List<Region> bg = new ArrayList<>();
         if (rois != null) {
             List<Roi> list = RoiRegions.read(rois);
@@ -40,23 +38,34 @@ public class RegionOptions {
                 Roi r = list.get(i);
                 String name = RoiRegions.nameOf(r, i);
                 RoleNames role = RoleNames.fromName(r.getName());
-                if (role == RoleNames.SIGNAL && signal == null) {
-                    if (sig != null) {
-                        throw new InputException("ROI file '" + rois + "' has more than one region named signal...: keep one");
-                    }
-                    sig = RoiRegions.toRegion(r, name, width, height);
+                if (role == RoleNames.SIGNAL && signal.isEmpty()) {
+                    sig.add(RoiRegions.toRegion(r, name, width, height));
                 } else if (role == RoleNames.BACKGROUND) {
                     bg.add(RoiRegions.toRegion(r, name, width, height));
                 }
             }
         }
-        if (signal != null) {
-            sig = signal.toRegion("signal", width, height);
+        for (int i = 0; i < signal.size(); i++) {
+            sig.add(signal.get(i).toRegion(signal.size() > 1 ? "signal " + (i + 1) : "signal", width, height));
         }
         for (int i = 0; i < background.size(); i++) {
             bg.add(background.get(i).toRegion("background " + (i + 1), width, height));
         }
-        return new Resolved(sig, bg);
+        return new Roles(sig, bg);
+    }
+
+    /** Fails with the command line's wording when a needed role is missing. */
+    static void require(Roles roles, boolean signal, boolean oneSignal, boolean background) throws InputException {
+        if (signal && roles.signal().isEmpty()) {
+            throw noSignal();
+        }
+        if (oneSignal && roles.signal().size() > 1) {
+            throw new InputException(roles.signal().size() + " signal regions were given: this method measures one; "
+                    + "give a single --signal (or one region named signal in the ROI file)");
+        }
+        if (background && roles.background().isEmpty()) {
+            throw noBackground();
+        }
     }
 
     static InputException noSignal() {

@@ -1,21 +1,15 @@
 package org.noisewise.cli;
 
 import ij.ImagePlus;
-import java.io.PrintWriter;
 import java.nio.file.Path;
-import java.util.ArrayList;
-import java.util.List;
-import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.noisewise.estimate.InputException;
-import org.noisewise.estimate.RepeatedAcquisitions;
 import org.noisewise.io.ImageFiles;
-import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.ImageWriter;
-import org.noisewise.io.ResultImages;
-import org.noisewise.io.StackPlanes;
-import org.noisewise.report.MethodRows;
-import org.noisewise.report.ResultRow;
+import org.noisewise.measure.Measurement;
+import org.noisewise.measure.Progress;
+import org.noisewise.measure.RepeatedMeasure;
+import org.noisewise.measure.Roles;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -26,20 +20,20 @@ import picocli.CommandLine.Model.CommandSpec;
 /** {@code noisewise repeat}: SNR from K repeated acquisitions, with maps. */
 @Command(name = "repeat", mixinStandardHelpOptions = true, sortOptions = false,
         description = {"Repeated-acquisition SNR: per-pixel temporal mean, SD and SNR maps from a stack of K >= 2 "
-                + "repeats (or a hyperstack's time frames, per z slice); region summary with pooled sigma.",
-                "--rician applies Koay-Basser correction of the magnitude bias to the summary (for SNR below ~4)."})
+                + "repeats (or a hyperstack's time frames, per z slice); a region summary with pooled sigma, always "
+                + "corrected for magnitude bias (Koay-Basser), the plain ratio beside it."})
 public class RepeatCommand implements Callable<Integer> {
 
     @Spec
     CommandSpec spec;
 
-    @Parameters(index = "0", paramLabel = "STACK", description = "Stack of repeats (TIFF, DICOM series file, ...).")
+    @Parameters(index = "0", paramLabel = "STACK", description = "Stack of repeats (TIFF, DICOM series, NIfTI 4-D, ...).")
     Path image;
 
     @Mixin
     RegionOptions regions;
 
-    @Option(names = "--rician", description = "Koay-Basser correction of the region summary.")
+    @Option(names = "--rician", description = "Accepted for compatibility: the correction is always applied.")
     boolean rician;
 
     @Mixin
@@ -55,6 +49,9 @@ public class RepeatCommand implements Callable<Integer> {
     @Option(names = "--force", description = "Replace output files that exist.")
     boolean force;
 
+    @Mixin
+    ProgressOption progressOption;
+
     @Option(names = "--json", description = "Write JSON (an object, or an array for several slices).")
     boolean json;
 
@@ -62,71 +59,33 @@ public class RepeatCommand implements Callable<Integer> {
     public Integer call() throws InputException {
         int channels = channelOption.get();
         ImagePlus imp = ImageFiles.open(image);
-        int k = StackPlanes.repeatCount(imp);
-        if (k < 2) {
-            throw new InputException("'" + image.getFileName() + "' holds a single frame: the repeated-acquisition "
-                    + "method needs a stack of at least 2 repeats of the same slice");
-        }
-        RegionOptions.Resolved reg = regions.resolve(imp.getWidth(), imp.getHeight());
-        if (reg.signal() == null && map == null) {
+        Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
+        if (roles.signal().isEmpty() && map == null) {
             throw new InputException("nothing to do: give --signal x,y,w,h for a summary and/or --map OUT.tif for maps");
         }
-        int zs = StackPlanes.zCount(imp);
-        int[] zList = slice == null ? java.util.stream.IntStream.rangeClosed(1, zs).toArray() : new int[] {slice};
-        if (slice != null && (slice < 1 || slice > zs)) {
-            throw new InputException("--slice " + slice + " does not exist: the stack has " + zs + " z slice(s)");
-        }
+        int[] zs = Slices.selectZ(imp, slice);
         if (map != null) {
-            for (int z : zList) {
-                ImageWriter.checkWritable(mapPath(z, zList.length), force);
+            for (int z : zs) {
+                ImageWriter.checkWritable(mapPath(z, zs.length), force, image);
             }
         }
-        String unit = ImagePlanes.valueUnit(imp);
-        List<ResultRow> rows = new ArrayList<>();
-        PrintWriter err = spec.commandLine().getErr();
-        long start = System.nanoTime();
-        for (int z : zList) {
-            RepeatedAcquisitions.Maps m = RepeatedAcquisitions.maps(StackPlanes.repeats(imp, z), imp.getWidth(),
-                    imp.getHeight(), null);
-            if (zList.length > 1) {
-                err.printf(Locale.ROOT, "repeat: z %d of %d done (%.1f s)%n", z, zList.length,
-                        (System.nanoTime() - start) / 1e9);
-                err.flush();
-            }
-            if (map != null) {
-                ImageWriter.saveTiff(ResultImages.mapStack(image.getFileName() + " maps z" + z, m, imp),
-                        mapPath(z, zList.length), force);
-            }
-            if (reg.signal() != null) {
-                rows.add(MethodRows.repeated(image.getFileName().toString(), z, unit,
-                        RepeatedAcquisitions.summarize(m, reg.signal(), rician, channels)));
-            }
+        Measurement m = RepeatedMeasure.run(imp, image.getFileName().toString(), roles, channels, zs, map != null,
+                progressOption.sink(spec.commandLine().getErr(), "repeat"));
+        for (int i = 0; i < m.images().size(); i++) {
+            ImageWriter.saveTiff(m.images().get(i), mapPath(zs[i], zs.length), force, image);
         }
-        if (!rows.isEmpty()) {
-            Output.print(spec.commandLine().getOut(), rows, json);
+        if (!m.rows().isEmpty()) {
+            Output.print(spec.commandLine().getOut(), m.rows(), json);
         }
         return 0;
     }
 
-    /** The region summary on one opened stack of repeats: one row per z slice. */
-    static List<ResultRow> summaryRows(ImagePlus imp, String name, RegionOptions regions, boolean rician, int channels,
-                                       Integer slice) throws InputException {
-        if (StackPlanes.repeatCount(imp) < 2) {
-            throw new InputException("'" + name + "' holds a single frame: the repeated-acquisition method needs a "
-                    + "stack of at least 2 repeats of the same slice");
-        }
-        RegionOptions.Resolved reg = regions.resolve(imp.getWidth(), imp.getHeight());
-        if (reg.signal() == null) {
-            throw RegionOptions.noSignal();
-        }
-        String unit = ImagePlanes.valueUnit(imp);
-        List<ResultRow> rows = new ArrayList<>();
-        for (int z : DifferenceCommand.zSlices(imp, slice)) {
-            RepeatedAcquisitions.Maps m = RepeatedAcquisitions.maps(StackPlanes.repeats(imp, z), imp.getWidth(),
-                    imp.getHeight(), null);
-            rows.add(MethodRows.repeated(name, z, unit, RepeatedAcquisitions.summarize(m, reg.signal(), rician, channels)));
-        }
-        return rows;
+    /** The region summary on one opened stack of repeats (shared with batch). */
+    static Measurement summary(ImagePlus imp, String name, RegionOptions regions, int channels, Integer slice,
+                               Progress progress) throws InputException {
+        Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
+        RegionOptions.require(roles, true, false, false);
+        return RepeatedMeasure.run(imp, name, roles, channels, Slices.selectZ(imp, slice), false, progress);
     }
 
     private Path mapPath(int z, int count) {

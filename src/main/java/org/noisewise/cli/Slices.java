@@ -1,25 +1,22 @@
 package org.noisewise.cli;
 
 import ij.ImagePlus;
-import java.util.stream.IntStream;
 import org.noisewise.estimate.InputException;
+import org.noisewise.measure.Planes;
 
-/** Which slices of an image a command measures. */
+/** {@code --slice N}: which planes a command measures (every one when none is given). */
 final class Slices {
 
     private Slices() {
     }
 
-    /** The 1-based slice asked for, or every slice when none was. */
+    /** Stack planes: the one asked for, or every plane. */
     static int[] select(ImagePlus imp, Integer slice) throws InputException {
-        int size = imp.getStackSize();
-        if (slice == null) {
-            return IntStream.rangeClosed(1, size).toArray();
-        }
-        if (slice < 1 || slice > size) {
-            throw new InputException("--slice " + slice + " does not exist: the image has " + size
-                    + " slice(s), numbered from 1");
-        }
-        return new int[] {slice};
+        return slice == null ? Planes.all(imp) : Planes.one(imp, slice);
+    }
+
+    /** z slices of a hyperstack (1 for a plain stack of repeats): the one asked for, or every one. */
+    static int[] selectZ(ImagePlus imp, Integer slice) throws InputException {
+        return slice == null ? Planes.allZ(imp) : Planes.oneZ(imp, slice);
     }
 }

@@ -9,28 +9,30 @@ import java.util.SplittableRandom;
 import java.util.stream.IntStream;
 import org.apache.commons.math3.distribution.NakagamiDistribution;
 import org.apache.commons.math3.stat.inference.KolmogorovSmirnovTest;
+import org.noisewise.estimate.BackgroundNoise;
 import org.noisewise.estimate.BackgroundSigma;
+import org.noisewise.estimate.Levels;
 import org.noisewise.estimate.SampleStats;
 import org.noisewise.estimate.SigmaEstimate;
 import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.estimate.Warning;
-import org.noisewise.sample.Phantoms;
 
 /**
  * Judges whether background (air) pixels behave like unprocessed magnitude noise, the chi(2L) model
- * that every background method assumes.
- *
+ * that every background method assumes. Two jobs:
  * <ul>
- *   <li>Masking: the fraction of exact zeros (zero-filled or masked backgrounds).</li>
- *   <li>Clipping: the fraction at the storage type's maximum.</li>
- *   <li>Quantisation: sigma below about one stored intensity step.</li>
- *   <li>Fit: the Kolmogorov-Smirnov distance to chi(2L) with the maximum-likelihood sigma. Because
- *       sigma is fitted to the same pixels, the textbook KS p-value is too lenient; the p-value here
- *       is a parametric bootstrap (Lilliefors' idea): the same statistic on {@value #BOOTSTRAP}
- *       samples simulated from the fitted model, each refitted.</li>
- *   <li>Agreement: the largest log-ratio of the mean-, SD- and median-based sigmas to the ML sigma,
- *       compared with its bootstrap distribution. Ghosts and signal leaking into the regions push
- *       the SD and mean above the median.</li>
+ *   <li>{@link #storageReasons}: how the values were stored. Masking (the fraction of exact zeros),
+ *       a background of one constant value, clipping at the storage type's maximum, and sigma below
+ *       about one stored intensity step.</li>
+ *   <li>{@link #fit}: the Kolmogorov-Smirnov distance to chi(2L) with the maximum-likelihood sigma, and
+ *       the largest log-ratio of the mean-, SD- and median-based sigmas to the ML sigma (ghosts and
+ *       signal leaking into the regions push the SD and mean above the median). Because sigma is
+ *       fitted to the same pixels, the textbook KS p-value is too lenient; both p-values are a
+ *       parametric bootstrap (Lilliefors' idea): the same statistics on up to {@value #BOOTSTRAP}
+ *       samples simulated from the fitted model, each refitted. The simulated values are stored as the
+ *       image stored its values (rounded to the same intensity step, clipped at the same range), so
+ *       the ties of 8- and 16-bit data do not count against them. Regions of more than
+ *       {@value #MAX_TESTED} pixels are tested on a regular subsample of that size.</li>
  * </ul>
  * The bootstrap is seeded from the data, so the same pixels always get the same verdict.
  */
@@ -42,27 +44,47 @@ public final class BackgroundCheck {
     static final int BATCH = 20;
     static final int STOP_AFTER = 10;
     /** p-values below this count as evidence against the model. */
-    public static final double ALPHA = 0.01;
+    public static final double ALPHA = Levels.ALPHA;
     /** More than this fraction of exact zeros: masked background (common practice). */
     public static final double ZERO_LIMIT = 0.01;
     /** More than this fraction at the type's maximum: clipped (common practice). */
     public static final double CLIP_LIMIT = 0.001;
     /** sigma below this many stored steps: too coarsely quantised for background statistics. */
     public static final double QUANTISATION_LIMIT = 1.0;
+    /** The goodness-of-fit bootstrap works on at most this many pixels. */
+    public static final int MAX_TESTED = 20000;
 
     private BackgroundCheck() {
     }
 
     /**
-     * What is known about how the values were stored.
+     * What is known about how the values were stored: calibrated value = {@code offset + step * raw}
+     * for whole-number raw values between the storage type's limits.
      *
      * @param step    the smallest difference the storage can represent in calibrated units (e.g. the
      *                DICOM rescale slope for integer data), 0 for floating point
+     * @param offset  the calibrated value of raw 0 (e.g. the rescale intercept)
+     * @param minimum the smallest storable calibrated value, or -infinity
      * @param maximum the largest storable calibrated value, or +infinity
      */
-    public record Storage(double step, double maximum) {
+    public record Storage(double step, double offset, double minimum, double maximum) {
+        public Storage(double step, double maximum) {
+            this(step, 0.0, step > 0 ? 0.0 : Double.NEGATIVE_INFINITY, maximum);
+        }
+
         public static Storage floatingPoint() {
-            return new Storage(0.0, Double.POSITIVE_INFINITY);
+            return new Storage(0.0, 0.0, Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY);
+        }
+
+        /** Whether values are stored as whole multiples of a step. */
+        public boolean integer() {
+            return step > 0;
+        }
+
+        /** A value as this storage would hold it: rounded to the step and clipped at the range. */
+        public double stored(double v) {
+            double r = step > 0 ? offset + step * Math.rint((v - offset) / step) : v;
+            return Math.max(minimum, Math.min(maximum, r));
         }
     }
 
@@ -81,90 +103,83 @@ public final class BackgroundCheck {
         }
     }
 
+    /** The goodness-of-fit and estimator-agreement statistics with their bootstrap p-values. */
+    public record Fit(double ksDistance, double fitP, double disagreement, double agreementP) {
+        static final Fit NONE = new Fit(Double.NaN, Double.NaN, Double.NaN, Double.NaN);
+    }
+
+    /** The check of independent pixels (simulated data, tests). */
     public static Result check(double[] background, int channels, Storage storage) {
-        return check(background, channels, storage, background.length);
+        return check(BackgroundNoise.independent(background), channels, storage);
     }
 
     /**
-     * The check for correlated pixels: the bootstrap simulates {@code effectiveCount} independent
-     * pixels, which matches the sampling spread of the statistics on the correlated sample.
+     * Checks measured background regions, with the estimates and effective counts of {@code noise}
+     * (the same intervals every other output shows).
      */
-    public static Result check(double[] background, int channels, Storage storage, double effectiveCount) {
-        int n = background.length;
-        int simulated = (int) Math.max(10, Math.min(n, Math.round(effectiveCount)));
-        if (n < 2) {
-            throw new IllegalArgumentException("need at least 2 background pixels");
-        }
-        Map<SigmaEstimator, SigmaEstimate> est = BackgroundSigma.estimate(background, channels);
-        SampleStats stats = SampleStats.of(background);
+    public static Result check(BackgroundNoise noise, int channels, Storage storage) {
+        double[] values = noise.values();
+        int n = values.length;
+        Map<SigmaEstimator, SigmaEstimate> est = noise.estimates(channels);
+        SampleStats stats = noise.stats();
         double sigma = est.get(SigmaEstimator.ML).sigma();
         int zeros = 0;
         int clipped = 0;
-        for (double v : background) {
-            if (v == 0) {
-                zeros++;
-            }
-            if (v >= storage.maximum()) {
-                clipped++;
-            }
+        for (double v : values) {
+            zeros += v == 0 ? 1 : 0;
+            clipped += v >= storage.maximum() ? 1 : 0;
         }
         double zeroFraction = (double) zeros / n;
         double clippedFraction = (double) clipped / n;
-
-        if (!(sigma > 0)) {
-            Warning allZero = new Warning("masked_background", "every background pixel is exactly zero: the background "
-                    + "was masked or zero-filled by the reconstruction, so it holds no noise; acquire twice and use the "
-                    + "difference method");
-            return new Result(channels, n, est, stats, zeroFraction, clippedFraction, Double.NaN, Double.NaN,
-                    Double.NaN, Double.NaN, Verdict.INVALID, List.of(allZero));
-        }
-        double[] sorted = background.clone();
-        Arrays.sort(sorted);
-        double ks = ksDistance(sorted, channels, sigma);
-        double dis = disagreement(est);
-        // Parametric bootstrap, one independent seeded stream per replicate so the result does not
-        // depend on how the replicates are spread over the cores.
-        // Parametric bootstrap with sequential stopping (Besag and Clifford 1991, Biometrika 78:301):
-        // replicates run in batches, one seeded stream each so the result does not depend on how they
-        // are spread over the cores, until both statistics have been reached STOP_AFTER times (the
-        // p-value is then clearly large) or BOOTSTRAP replicates are done.
-        SplittableRandom master = new SplittableRandom(seedOf(sorted));
-        int ksExceed = 0;
-        int disExceed = 0;
-        int done = 0;
-        while (done < BOOTSTRAP && (ksExceed < STOP_AFTER || disExceed < STOP_AFTER)) {
-            int batch = Math.min(BATCH, BOOTSTRAP - done);
-            SplittableRandom[] streams = new SplittableRandom[batch];
-            for (int b = 0; b < batch; b++) {
-                streams[b] = master.split();
-            }
-            int[] exceed = IntStream.range(0, batch).parallel().mapToObj(b -> {
-                SplittableRandom rng = streams[b];
-                double[] sim = new double[simulated];
-                for (int i = 0; i < simulated; i++) {
-                    sim[i] = Phantoms.magnitude(rng, 0.0, sigma, channels);
-                }
-                Map<SigmaEstimator, SigmaEstimate> e = BackgroundSigma.estimate(sim, channels);
-                Arrays.sort(sim);
-                return new int[] {ksDistance(sim, channels, e.get(SigmaEstimator.ML).sigma()) >= ks ? 1 : 0,
-                        disagreement(e) >= dis ? 1 : 0};
-            }).reduce(new int[2], (x, y) -> new int[] {x[0] + y[0], x[1] + y[1]});
-            ksExceed += exceed[0];
-            disExceed += exceed[1];
-            done += batch;
-        }
-        boolean complete = done >= BOOTSTRAP;
-        double fitP = complete ? (1.0 + ksExceed) / (BOOTSTRAP + 1.0) : (double) ksExceed / done;
-        double agreementP = complete ? (1.0 + disExceed) / (BOOTSTRAP + 1.0) : (double) disExceed / done;
-
         List<Warning> reasons = new ArrayList<>();
+        Verdict v = storageReasons(stats, sigma, zeroFraction, clippedFraction, storage, reasons);
+        if (!(sigma > 0) || !(stats.sd() > 0)) {
+            return new Result(channels, n, est, stats, zeroFraction, clippedFraction, Double.NaN, Double.NaN,
+                    Double.NaN, Double.NaN, v, reasons);
+        }
+        Fit fit = fit(values, channels, storage, noise.effectivePixels(SigmaEstimator.MEDIAN));
+        if (fit.fitP() < ALPHA) {
+            v = v.worst(Verdict.QUESTIONABLE);
+            reasons.add(new Warning("poor_fit", String.format(Locale.ROOT,
+                    "the background histogram does not follow the %s model (Kolmogorov-Smirnov distance %.3f, "
+                            + "bootstrap p = %.3f): ghosts, artefacts, filtering, parallel imaging or a wrong channel "
+                            + "count; prefer the difference method", modelName(channels), fit.ksDistance(), fit.fitP())));
+        }
+        if (fit.agreementP() < ALPHA) {
+            v = v.worst(Verdict.QUESTIONABLE);
+            reasons.add(new Warning("estimators_disagree", String.format(Locale.ROOT,
+                    "the mean-, SD-, ML- and median-based sigmas disagree by up to %.1f%%, more than sampling "
+                            + "allows (bootstrap p = %.3f): something other than noise is in the regions (ghosts, "
+                            + "signal, artefacts); move them or use the difference method",
+                    100 * (Math.exp(fit.disagreement()) - 1), fit.agreementP())));
+        }
+        return new Result(channels, n, est, stats, zeroFraction, clippedFraction, fit.ksDistance(), fit.fitP(),
+                fit.disagreement(), fit.agreementP(), v, reasons);
+    }
+
+    /** Masking, a constant background, clipping and quantisation: the verdict they imply, reasons added. */
+    static Verdict storageReasons(SampleStats stats, double sigma, double zeroFraction, double clippedFraction,
+                                  Storage storage, List<Warning> reasons) {
         Verdict v = Verdict.VALID;
+        if (!(sigma > 0)) {
+            reasons.add(new Warning("masked_background", "every background pixel is exactly zero: the background "
+                    + "was masked or zero-filled by the reconstruction, so it holds no noise; acquire twice and use the "
+                    + "difference method"));
+            return Verdict.INVALID;
+        }
         if (zeroFraction > ZERO_LIMIT) {
             v = Verdict.INVALID;
             reasons.add(new Warning("masked_background", String.format(Locale.ROOT,
                     "%.1f%% of the background pixels are exactly zero: the background was masked or zero-filled "
                             + "by the reconstruction, so it no longer holds the noise; acquire twice and use the "
                             + "difference method", 100 * zeroFraction)));
+        }
+        if (!(stats.sd() > 0)) {
+            reasons.add(new Warning("constant_background", String.format(Locale.ROOT,
+                    "every background pixel has the same value (%.6g): the background was replaced by a constant "
+                            + "(masking to an offset, or not an image of noise), so it holds no noise; check the regions "
+                            + "lie in air, or acquire twice and use the difference method", stats.mean())));
+            return Verdict.INVALID;
         }
         if (clippedFraction > CLIP_LIMIT) {
             v = v.worst(Verdict.INVALID);
@@ -179,23 +194,82 @@ public final class BackgroundCheck {
                             + "coarsely quantised for background statistics; export with finer scaling or use the "
                             + "difference method", sigma, storage.step())));
         }
-        if (fitP < ALPHA) {
-            v = v.worst(Verdict.QUESTIONABLE);
-            reasons.add(new Warning("poor_fit", String.format(Locale.ROOT,
-                    "the background histogram does not follow the %s model (Kolmogorov-Smirnov distance %.3f, "
-                            + "bootstrap p = %.3f): ghosts, artefacts, filtering, parallel imaging or a wrong channel "
-                            + "count; prefer the difference method", modelName(channels), ks, fitP)));
+        return v;
+    }
+
+    /**
+     * Parametric bootstrap of the fit and agreement statistics, with sequential stopping (Besag and
+     * Clifford 1991, Biometrika 78:301): replicates run in batches, each from its own seeded stream so
+     * the result does not depend on how they are spread over the cores, until both statistics have been
+     * reached {@value #STOP_AFTER} times (the p-value is then clearly large) or {@value #BOOTSTRAP}
+     * replicates are done.
+     *
+     * @param effective the independent pixels the sample is worth; the replicates simulate that many
+     */
+    static Fit fit(double[] all, int channels, Storage storage, double effective) {
+        double[] values = subsample(all);
+        double ratio = (double) values.length / all.length;
+        int simulated = (int) Math.max(10, Math.min(values.length, Math.round(effective * ratio)));
+        Map<SigmaEstimator, SigmaEstimate> est = BackgroundSigma.estimate(values, channels);
+        double sigma = est.get(SigmaEstimator.ML).sigma();
+        double[] sorted = values.clone();
+        Arrays.sort(sorted);
+        double ks = ksDistance(sorted, channels, sigma);
+        double dis = disagreement(est);
+        SplittableRandom master = new SplittableRandom(seedOf(sorted));
+        int ksExceed = 0;
+        int disExceed = 0;
+        int done = 0;
+        while (done < BOOTSTRAP && (ksExceed < STOP_AFTER || disExceed < STOP_AFTER)) {
+            int batch = Math.min(BATCH, BOOTSTRAP - done);
+            SplittableRandom[] streams = new SplittableRandom[batch];
+            for (int b = 0; b < batch; b++) {
+                streams[b] = master.split();
+            }
+            int[] exceed = IntStream.range(0, batch).parallel().mapToObj(b -> {
+                double[] sim = simulate(streams[b], simulated, sigma, channels, storage);
+                Map<SigmaEstimator, SigmaEstimate> e = BackgroundSigma.estimate(sim, channels);
+                Arrays.sort(sim);
+                return new int[] {ksDistance(sim, channels, e.get(SigmaEstimator.ML).sigma()) >= ks ? 1 : 0,
+                        disagreement(e) >= dis ? 1 : 0};
+            }).reduce(new int[2], (x, y) -> new int[] {x[0] + y[0], x[1] + y[1]});
+            ksExceed += exceed[0];
+            disExceed += exceed[1];
+            done += batch;
         }
-        if (agreementP < ALPHA) {
-            v = v.worst(Verdict.QUESTIONABLE);
-            reasons.add(new Warning("estimators_disagree", String.format(Locale.ROOT,
-                    "the mean-, SD-, ML- and median-based sigmas disagree by up to %.1f%%, more than sampling "
-                            + "allows (bootstrap p = %.3f): something other than noise is in the regions (ghosts, "
-                            + "signal, artefacts); move them or use the difference method",
-                    100 * (Math.exp(dis) - 1), agreementP)));
+        boolean complete = done >= BOOTSTRAP;
+        double fitP = complete ? (1.0 + ksExceed) / (BOOTSTRAP + 1.0) : (double) ksExceed / done;
+        double agreementP = complete ? (1.0 + disExceed) / (BOOTSTRAP + 1.0) : (double) disExceed / done;
+        return new Fit(ks, fitP, dis, agreementP);
+    }
+
+    /**
+     * {@code n} background magnitudes {@code sigma * chi(2L)} as the storage holds them:
+     * {@code M^2 / sigma^2} is twice a sum of L unit exponentials, {@code -2 ln(U_1 ... U_L)}.
+     */
+    static double[] simulate(SplittableRandom rng, int n, double sigma, int channels, Storage storage) {
+        double[] out = new double[n];
+        for (int i = 0; i < n; i++) {
+            double product = 1.0;
+            for (int c = 0; c < channels; c++) {
+                product *= 1.0 - rng.nextDouble();
+            }
+            out[i] = storage.stored(sigma * Math.sqrt(-2.0 * Math.log(product)));
         }
-        return new Result(channels, n, est, stats, zeroFraction, clippedFraction, ks, fitP, dis, agreementP, v,
-                reasons);
+        return out;
+    }
+
+    /** At most {@value #MAX_TESTED} values, a regular subsample of the pooled regions. */
+    private static double[] subsample(double[] values) {
+        if (values.length <= MAX_TESTED) {
+            return values;
+        }
+        double[] out = new double[MAX_TESTED];
+        double step = (double) values.length / MAX_TESTED;
+        for (int i = 0; i < MAX_TESTED; i++) {
+            out[i] = values[(int) (i * step)];
+        }
+        return out;
     }
 
     /** "Rayleigh" for one channel, else "chi(2L)". */

@@ -4,15 +4,19 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import org.apache.commons.math3.distribution.NormalDistribution;
+import org.noisewise.estimate.BackgroundNoise;
+import org.noisewise.estimate.CorrectedSnr;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Interval;
+import org.noisewise.estimate.Levels;
 import org.noisewise.estimate.Region;
+import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.estimate.Warning;
 
 /**
  * Every check of background regions, used by every command that measures with them: masking,
  * clipping and quantisation, fit and estimator agreement ({@link BackgroundCheck}), spatial noise
- * correlation and the effective pixel count ({@link NoiseCorrelation}), the effective channel count
+ * correlation and the effective pixel counts ({@link BackgroundNoise}), the effective channel count
  * ({@link ChannelCount}), and agreement between regions, which separates ghosting along the
  * phase-encoding direction from noise that varies across the image ({@link RegionAgreement}).
  *
@@ -23,8 +27,7 @@ import org.noisewise.estimate.Warning;
 public final class BackgroundDiagnostics {
 
     /** Significance level of every test here. */
-    public static final double ALPHA = 0.01;
-    private static final double Z995 = 2.5758293035489;
+    public static final double ALPHA = Levels.ALPHA;
 
     private BackgroundDiagnostics() {
     }
@@ -46,8 +49,8 @@ public final class BackgroundDiagnostics {
 
     /** Everything found. */
     public record Diagnosis(int channels, boolean channelsEstimated, ChannelCount.Estimate channelEstimate,
-                            NoiseCorrelation.Result correlation, double effectivePixels, BackgroundCheck.Result check,
-                            List<RegionAgreement.Part> regions, RegionAgreement.Result regionTest, Verdict verdict,
+                            BackgroundNoise noise, BackgroundCheck.Result check, List<RegionAgreement.Part> regions,
+                            RegionAgreement.Result regionTest, PhaseDirection phase, Verdict verdict,
                             List<Warning> reasons) {
         public Diagnosis {
             regions = List.copyOf(regions);
@@ -58,23 +61,36 @@ public final class BackgroundDiagnostics {
         public Diagnosis withReason(Warning reason, Verdict atLeast) {
             List<Warning> r = new ArrayList<>(reasons);
             r.add(reason);
-            return new Diagnosis(channels, channelsEstimated, channelEstimate, correlation, effectivePixels, check, regions,
-                    regionTest, verdict.worst(atLeast), r);
+            return new Diagnosis(channels, channelsEstimated, channelEstimate, noise, check, regions, regionTest, phase,
+                    verdict.worst(atLeast), r);
         }
 
         /** The channel count to report: the estimate when estimated, else the stated count. */
         public double reportedChannels() {
             return channelsEstimated && channelEstimate != null ? channelEstimate.channels() : channels;
         }
+
+        /** The effective pixel count behind the maximum-likelihood sigma's interval. */
+        public double effectivePixels() {
+            return noise.effectivePixels(SigmaEstimator.ML);
+        }
     }
 
+    /** Measures the background regions and diagnoses them. */
     public static Diagnosis diagnose(float[] pixels, int width, int height, Region signal, List<Region> background,
                                      Options options) throws InputException {
-        double[] values = Region.pooledMagnitudes(pixels, background);
-        int n = values.length;
-        NoiseCorrelation.Result corr = NoiseCorrelation.ofSquares(pixels, width, background);
-        double ratio = 1.0 / corr.factor();
-        ChannelCount.Estimate est = ChannelCount.estimate(values, ratio);
+        return diagnose(pixels, width, height, signal, background, BackgroundNoise.measure(pixels, width, background),
+                options);
+    }
+
+    /**
+     * Diagnoses background regions already measured as {@code noise} (so the pooled values, their
+     * correlation and the estimates are computed once per measurement).
+     */
+    public static Diagnosis diagnose(float[] pixels, int width, int height, Region signal, List<Region> background,
+                                     BackgroundNoise noise, Options options) throws InputException {
+        double ratio = 1.0 / noise.inflation(SigmaEstimator.ML);
+        ChannelCount.Estimate est = ChannelCount.estimate(noise.values(), ratio);
         List<Warning> reasons = new ArrayList<>();
         Verdict verdict = Verdict.VALID;
         boolean auto = options.channels() == null;
@@ -89,48 +105,60 @@ public final class BackgroundDiagnostics {
         } else {
             channels = options.channels();
         }
-        double nEff = corr.effective(n);
-        BackgroundCheck.Result check = BackgroundCheck.check(values, channels, options.storage(), nEff);
+        BackgroundCheck.Result check = BackgroundCheck.check(noise, channels, options.storage());
         verdict = verdict.worst(check.verdict());
         reasons.addAll(check.reasons());
-
         if (est != null && check.verdict() != Verdict.INVALID) {
-            double half = Z995 / 1.959963984540054 * 0.5 * (est.high() - est.low());
-            double lo = est.channels() - half;
-            double hi = est.channels() + half;
-            if (auto) {
-                long nearest = Math.max(1, Math.round(est.channels()));
-                if ((nearest < lo || nearest > hi) && Math.abs(est.channels() - nearest) > 0.2) {
-                    verdict = verdict.worst(Verdict.QUESTIONABLE);
-                    reasons.add(new Warning("channels_not_integer", String.format(Locale.ROOT,
-                            "the background behaves like %.2f channels (95%% interval %.2f-%.2f), not a whole number: "
-                                    + "correlated channels, parallel imaging, filtering or a combination other than sum of "
-                                    + "squares; background sigma is unreliable, prefer the difference method",
-                            est.channels(), est.low(), est.high())));
-                }
-            } else if (channels < lo || channels > hi) {
+            Warning w = channelReason(est, channels, auto);
+            if (w != null) {
                 verdict = verdict.worst(Verdict.QUESTIONABLE);
-                reasons.add(new Warning("channels_mismatch", String.format(Locale.ROOT,
-                        "%d channel(s) were stated, but the background behaves like %.2f (95%% interval %.2f-%.2f): "
-                                + "check the coil's channel count, or suspect correlated channels, parallel imaging or a "
-                                + "combination other than sum of squares; try --channels auto or the difference method",
-                        channels, est.channels(), est.low(), est.high())));
+                reasons.add(w);
             }
         }
-        if (corr.worthWarning()) {
+        if (noise.squares().correlated() && Math.max(noise.noiseCorrelationX(), noise.noiseCorrelationY()) > 0.1) {
             reasons.add(new Warning("correlated_noise", String.format(Locale.ROOT,
                     "neighbouring pixels' noise correlates (%.2f along x, %.2f along y): interpolation, zero-filling "
                             + "or filtering; intervals use an effective pixel count of %.0f of %d",
-                    corr.neighbourX(), corr.neighbourY(), nEff, n)));
+                    noise.noiseCorrelationX(), noise.noiseCorrelationY(), noise.effectivePixels(SigmaEstimator.ML),
+                    noise.size())));
         }
-
         List<RegionAgreement.Part> parts = parts(pixels, width, height, signal, background, channels, ratio);
         RegionAgreement.Result all = RegionAgreement.test(parts);
         if (all.p() < ALPHA && check.verdict() != Verdict.INVALID) {
             verdict = verdict.worst(Verdict.QUESTIONABLE);
             reasons.add(regionReason(parts, options.phase()));
         }
-        return new Diagnosis(channels, auto, est, corr, nEff, check, parts, all, verdict, reasons);
+        return new Diagnosis(channels, auto, est, noise, check, parts, all, options.phase(), verdict, reasons);
+    }
+
+    /**
+     * The channel-count reason, or null: a stated count outside the estimate's 99% interval (the 1%
+     * level of every test here), or in auto mode an estimate that is not near a whole number.
+     */
+    private static Warning channelReason(ChannelCount.Estimate est, int channels, boolean auto) {
+        double half = Levels.Z99 / Levels.Z95 * 0.5 * (est.high() - est.low());
+        double lo = est.channels() - half;
+        double hi = est.channels() + half;
+        if (auto) {
+            long nearest = Math.max(1, Math.round(est.channels()));
+            if ((nearest < lo || nearest > hi) && Math.abs(est.channels() - nearest) > 0.2) {
+                return new Warning("channels_not_integer", String.format(Locale.ROOT,
+                        "the background behaves like %.2f channels (99%% interval %.2f-%.2f), not a whole number: "
+                                + "correlated channels, parallel imaging, filtering or a combination other than sum of "
+                                + "squares; background sigma is unreliable, prefer the difference method",
+                        est.channels(), Math.max(0, lo), hi));
+            }
+            return null;
+        }
+        if (channels < lo || channels > hi) {
+            return new Warning("channels_mismatch", String.format(Locale.ROOT,
+                    "%d channel(s) were stated, but the background behaves like %.2f (99%% interval %.2f-%.2f): "
+                            + "check the coil's channel count, or suspect correlated channels, parallel imaging or a "
+                            + "combination other than sum of squares; let Noisewise estimate the channel count (auto) "
+                            + "or use the difference method",
+                    channels, est.channels(), Math.max(0, lo), hi));
+        }
+        return null;
     }
 
     private static Warning regionReason(List<RegionAgreement.Part> parts, PhaseDirection phase) {
@@ -172,7 +200,7 @@ public final class BackgroundDiagnostics {
         double cx = width / 2.0;
         double cy = height / 2.0;
         if (signal != null) {
-            double[] c = centroid(signal, width);
+            double[] c = signal.centroid(width);
             cx = c[0];
             cy = c[1];
         }
@@ -187,22 +215,11 @@ public final class BackgroundDiagnostics {
             if (!(var > 0)) {
                 continue;
             }
-            double[] c = centroid(r, width);
+            double[] c = r.centroid(width);
             boolean horizontal = Math.abs(c[0] - cx) > Math.abs(c[1] - cy);
             parts.add(new RegionAgreement.Part(r.name(), var, channels * v.length * ratio, horizontal));
         }
         return parts;
-    }
-
-    private static double[] centroid(Region r, int width) {
-        double sx = 0;
-        double sy = 0;
-        int[] idx = r.indices();
-        for (int i : idx) {
-            sx += i % width + 0.5;
-            sy += i / width + 0.5;
-        }
-        return new double[] {sx / idx.length, sy / idx.length};
     }
 
     /**
@@ -213,12 +230,11 @@ public final class BackgroundDiagnostics {
      */
     public static Warning compareWithDifference(double backgroundSigma, Interval backgroundCi, double differenceSigma,
                                                 Interval differenceCi) {
-        double z975 = 1.959963984540054;
-        double se1 = (Math.log(backgroundCi.high()) - Math.log(backgroundCi.low())) / (2 * z975);
-        double se2 = (Math.log(differenceCi.high()) - Math.log(differenceCi.low())) / (2 * z975);
+        double se1 = CorrectedSnr.logSe(backgroundCi);
+        double se2 = CorrectedSnr.logSe(differenceCi);
         double z = Math.log(backgroundSigma / differenceSigma) / Math.sqrt(se1 * se1 + se2 * se2);
         double p = 2 * (1 - new NormalDistribution(null, 0, 1).cumulativeProbability(Math.abs(z)));
-        if (p >= ALPHA) {
+        if (!(p < ALPHA)) {
             return null;
         }
         return new Warning("background_vs_difference", String.format(Locale.ROOT,

@@ -23,12 +23,12 @@ import org.noisewise.math.ChiMoments;
  *   <li>{@link SigmaEstimator#MEDIAN}: the distribution-free order-statistic interval for the
  *       median (binomial ranks, coverage at least 95%), divided by the chi(2L) median.</li>
  * </ul>
- * Correlated pixels make every interval too narrow; callers pass an effective pixel count when
- * they know it (see {@link #estimate(double[], int, double)}).
+ * Correlated pixels make every interval too narrow; callers pass each estimator's effective pixel
+ * count when they know it ({@link BackgroundNoise} measures them).
  */
 public final class BackgroundSigma {
 
-    private static final double Z975 = 1.959963984540054;
+    private static final double Z975 = Levels.Z95;
 
     private BackgroundSigma() {
     }
@@ -39,7 +39,7 @@ public final class BackgroundSigma {
     }
 
     /**
-     * All four estimates.
+     * All four estimates, every interval from the same effective pixel count.
      *
      * @param background     background magnitudes (finite, non-negative)
      * @param channels       number of combined receive channels L (1 for a single-channel image)
@@ -48,6 +48,19 @@ public final class BackgroundSigma {
      */
     public static Map<SigmaEstimator, SigmaEstimate> estimate(double[] background, int channels,
                                                               double effectiveCount) {
+        Map<SigmaEstimator, Double> counts = new EnumMap<>(SigmaEstimator.class);
+        for (SigmaEstimator e : SigmaEstimator.values()) {
+            counts.put(e, effectiveCount);
+        }
+        return estimate(background, background.length >= 1 ? SampleStats.of(background) : null, channels, counts);
+    }
+
+    /**
+     * All four estimates, each interval from its own effective pixel count (correlated noise inflates
+     * the variance of each estimator differently: see {@link BackgroundNoise}).
+     */
+    public static Map<SigmaEstimator, SigmaEstimate> estimate(double[] background, SampleStats stats, int channels,
+                                                              Map<SigmaEstimator, Double> effectiveCounts) {
         int n = background.length;
         if (n < 2) {
             throw new IllegalArgumentException("at least two background pixels are needed, got " + n);
@@ -55,14 +68,17 @@ public final class BackgroundSigma {
         if (channels < 1) {
             throw new IllegalArgumentException("channel count must be >= 1, was " + channels);
         }
-        double nEff = Math.max(2.0, Math.min(n, effectiveCount));
-        SampleStats s = SampleStats.of(background);
         Map<SigmaEstimator, SigmaEstimate> out = new EnumMap<>(SigmaEstimator.class);
-        out.put(SigmaEstimator.MEAN, fromMean(s, channels, nEff));
-        out.put(SigmaEstimator.SD, fromSd(s, channels, nEff));
-        out.put(SigmaEstimator.ML, maximumLikelihood(s, channels, nEff));
-        out.put(SigmaEstimator.MEDIAN, fromMedian(background, channels, nEff));
+        out.put(SigmaEstimator.MEAN, fromMean(stats, channels, count(effectiveCounts, SigmaEstimator.MEAN, n)));
+        out.put(SigmaEstimator.SD, fromSd(stats, channels, count(effectiveCounts, SigmaEstimator.SD, n)));
+        out.put(SigmaEstimator.ML, maximumLikelihood(stats, channels, count(effectiveCounts, SigmaEstimator.ML, n)));
+        out.put(SigmaEstimator.MEDIAN, fromMedian(background, channels, count(effectiveCounts, SigmaEstimator.MEDIAN, n)));
         return Collections.unmodifiableMap(out);
+    }
+
+    private static double count(Map<SigmaEstimator, Double> counts, SigmaEstimator e, int n) {
+        Double c = counts.get(e);
+        return Math.max(2.0, Math.min(n, c == null ? n : c));
     }
 
     static SigmaEstimate fromMean(SampleStats s, int channels, double nEff) {

@@ -3,20 +3,21 @@ package org.noisewise.estimate;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
-import org.apache.commons.math3.distribution.ChiSquaredDistribution;
-import org.noisewise.diagnose.NoiseCorrelation;
 
 /**
- * The two-acquisition (NEMA MS 1 difference) method: two identical acquisitions close in time,
- * {@code sigma = SD(I1 - I2) / sqrt(2)} over the signal region, {@code S} = mean of image 1 over the
- * same region, {@code SNR = S / sigma = sqrt(2) S / SD(diff)}. Structure, coil profiles, ghosts that
- * repeat, masking and filtering of the background do not enter, which is why it stays valid where
- * background methods fail (Dietrich et al. 2007, JMRI 26:375).
+ * The two-acquisition (NEMA MS 1 difference) method: two identical acquisitions close in time.
+ * Over the signal region, the magnitude SD is {@code s = SD(I1 - I2) / sqrt(2)} and NEMA's figure is
+ * {@code mean(I1) / s = sqrt(2) S / SD(diff)}. Structure, coil profiles, ghosts that repeat, masking and
+ * filtering of the background do not enter, which is why it stays valid where background methods
+ * fail (Dietrich et al. 2007, JMRI 26:375).
  *
- * <p>The sigma interval treats the difference as Gaussian: {@code (n-1) s^2 / var ~ chi^2(n-1)}, with
- * {@code n} the effective pixel count when the difference image shows spatially correlated noise.
- * At low SNR the magnitude SD is below sigma (Rice), so the method then underestimates sigma and a
- * warning says so.
+ * <p>At low SNR the magnitude mean is above the amplitude and the magnitude SD below sigma, so the
+ * reported figures are Koay and Basser's correction ({@link CorrectedSnr#meanAndSd}) of the average
+ * image's mean and of {@code s}; NEMA's plain ratio is kept beside them. Spatially correlated noise is
+ * measured on the difference image itself: the squared-correlation sum sets the degrees of freedom of
+ * {@code s} (whose interval treats the difference as Gaussian, as a difference of two magnitudes nearly
+ * is), the linear sum the standard errors of the means and the divisor {@code n - V1} that keeps
+ * {@code s^2} unbiased for correlated pixels ({@link SpatialCorrelation}).
  */
 public final class DifferenceSnr {
 
@@ -33,7 +34,7 @@ public final class DifferenceSnr {
      * @param second   image 2, same size
      * @param width    plane width, for the spatial correlation of the difference image
      * @param signal   the signal region
-     * @param channels receive channels (only for the low-SNR bias statement)
+     * @param channels receive channels L of the magnitude model
      */
     public static DifferenceSnrResult analyze(float[] first, float[] second, int width, Region signal, int channels)
             throws InputException {
@@ -48,7 +49,8 @@ public final class DifferenceSnr {
         double[] b = signal.values(second);
         int n = a.length;
         if (n < 2) {
-            throw new InputException("region '" + signal.name() + "' holds one pixel: draw a larger region");
+            throw new InputException("region '" + signal.name() + "' holds one pixel: the difference method needs the "
+                    + "spread of many pixels; draw a region of at least " + MIN_PIXELS + " pixels");
         }
         double[] d = new double[n];
         double[] avg = new double[n];
@@ -59,32 +61,30 @@ public final class DifferenceSnr {
         SampleStats sa = SampleStats.of(a);
         SampleStats sd = SampleStats.of(d);
         SampleStats savg = SampleStats.of(avg);
-        List<Warning> warnings = new ArrayList<>();
         if (sd.sd() == 0) {
             throw new InputException("the two acquisitions are identical in region '" + signal.name()
                     + "': choose two separate acquisitions, not the same image twice");
         }
-        // Correlated noise (interpolation, zero-filling, filtering) is measured on the difference image:
-        // its squares set the degrees of freedom of the variance, its values the standard errors of means.
-        float[] diff = new float[first.length];
-        for (int i = 0; i < diff.length; i++) {
-            diff[i] = first[i] - second[i];
-        }
-        NoiseCorrelation.Result values = NoiseCorrelation.ofValues(diff, width, List.of(signal));
-        double nVar = Math.max(2.0, NoiseCorrelation.ofSquares(diff, width, List.of(signal)).effective(n));
-        double nMean = Math.max(2.0, values.effective(n));
-        double sigma = sd.sd() / Math.sqrt(2.0);
-        ChiSquaredDistribution chi2 = new ChiSquaredDistribution(null, nVar - 1.0);
-        Interval ci = new Interval(sigma * Math.sqrt((nVar - 1.0) / chi2.inverseCumulativeProbability(0.975)),
-                sigma * Math.sqrt((nVar - 1.0) / chi2.inverseCumulativeProbability(0.025)));
-        double snr = sa.mean() / sigma;
-        Interval snrCi = SnrMath.snrInterval(sa.mean(), sa.sd() / Math.sqrt(nMean), sigma, ci);
+        SpatialCorrelation.Result corr = correlation(first, second, width, signal, sd.mean());
+        double nVar = corr.effectiveForVariance(n);
+        double nMean = corr.effectiveForMean(n);
+        // E[sum (d - mean)^2] = var (n - V1) for correlated pixels (n - 1 when independent)
+        double s = sd.sd() * Math.sqrt((n - 1.0) / Math.max(1.0, n - corr.linear())) / Math.sqrt(2.0);
+        // the difference of two magnitudes is close to Gaussian: Var(s^2) = 2 s^4 V2 / n
+        double seLogS = Math.sqrt(0.5 / nVar);
+        double seAverage = s * Math.sqrt(1.0 / (2.0 * nMean));
+        CorrectedSnr figures = CorrectedSnr.meanAndSd(savg.mean(), seAverage, s, seLogS, channels);
+        double plain = sa.mean() / s;
+        double seLogPlain = Math.sqrt(Math.pow(s / Math.sqrt(nMean) / sa.mean(), 2) + seLogS * seLogS);
+        Interval plainCi = sa.mean() > 0 ? new Interval(plain * Math.exp(-Levels.Z95 * seLogPlain),
+                plain * Math.exp(Levels.Z95 * seLogPlain)) : new Interval(Double.NaN, Double.NaN);
+        List<Warning> warnings = new ArrayList<>();
         double z = sd.mean() / (sd.sd() / Math.sqrt(nMean));
-        if (values.worthWarning()) {
+        if (corr.correlated() && Math.max(corr.neighbourX(), corr.neighbourY()) > 0.1) {
             warnings.add(new Warning("correlated_noise", String.format(Locale.ROOT,
                     "neighbouring pixels' noise correlates (%.2f along x, %.2f along y in the difference image): "
                             + "interpolation, zero-filling or filtering; intervals use an effective pixel count of "
-                            + "%.0f of %d", values.neighbourX(), values.neighbourY(), nVar, n)));
+                            + "%.0f of %d", corr.neighbourX(), corr.neighbourY(), nVar, n)));
         }
         if (Math.abs(z) > DRIFT_Z) {
             warnings.add(new Warning("drift", String.format(Locale.ROOT,
@@ -98,12 +98,21 @@ public final class DifferenceSnr {
                     "only %d pixels in the region (fewer than %d): sigma is imprecise; draw a larger region",
                     n, MIN_PIXELS)));
         }
-        Warning low = SnrMath.lowSnrWarning(snr, channels);
-        if (low != null) {
-            warnings.add(new Warning("low_snr", low.message()
-                    + " The difference of two magnitude images also underestimates sigma at this SNR."));
+        warnings.addAll(figures.warnings());
+        return new DifferenceSnrResult(sa, savg.mean(), sd.mean(), s, plain, plainCi, figures, corr, nVar, channels,
+                warnings);
+    }
+
+    /** The correlation of the difference image over the region, about its mean. */
+    static SpatialCorrelation.Result correlation(float[] first, float[] second, int width, Region signal, double mean) {
+        SpatialCorrelation.Patch p = SpatialCorrelation.Patch.of(signal, width);
+        double[] qa = p.sample(first, width);
+        double[] qb = p.sample(second, width);
+        for (int i = 0; i < qa.length; i++) {
+            qa[i] -= qb[i];
         }
-        return new DifferenceSnrResult(sa, savg.mean(), sd.mean(), sigma, ci, snr, snrCi, channels, values.neighbourX(),
-                values.neighbourY(), nVar, warnings);
+        SpatialCorrelation.LagSums sums = new SpatialCorrelation.LagSums(SpatialCorrelation.SQUARE_WINDOW);
+        sums.add(p, qa, mean);
+        return sums.result(p.n());
     }
 }

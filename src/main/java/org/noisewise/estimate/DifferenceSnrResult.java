@@ -5,24 +5,41 @@ import java.util.List;
 /**
  * The result of the difference method on one plane.
  *
- * @param signal         statistics of image 1 over the region
- * @param averageMean    mean of the average image (I1 + I2)/2 over the region
- * @param meanDifference mean of I1 - I2 over the region
- * @param sigma          SD(I1 - I2) / sqrt(2)
- * @param sigmaCi95      chi-square interval of sigma
- * @param snr            signal mean / sigma
- * @param snrCi95        interval of the SNR
- * @param channels       receive channels assumed for the low-SNR statement
- * @param correlationX   noise correlation of horizontal neighbours in the difference image
- * @param correlationY   noise correlation of vertical neighbours
+ * @param signal          statistics of image 1 over the region
+ * @param averageMean     mean of the average image (I1 + I2)/2 over the region
+ * @param meanDifference  mean of I1 - I2 over the region
+ * @param sigmaMagnitude  the magnitude SD {@code SD(I1 - I2) / sqrt(2)}, uncorrected
+ * @param magnitudeSnr    NEMA's plain figure {@code mean(I1) / sigmaMagnitude}
+ * @param magnitudeSnrCi95 its interval
+ * @param figures         corrected amplitude, sigma and SNR (Koay-Basser), with intervals
+ * @param correlation     noise correlation of the difference image over the region
  * @param effectivePixels effective pixel count behind the sigma interval
- * @param warnings       cautions
+ * @param channels        receive channels of the magnitude model
+ * @param warnings        cautions
  */
-public record DifferenceSnrResult(SampleStats signal, double averageMean, double meanDifference, double sigma,
-                                  Interval sigmaCi95, double snr, Interval snrCi95, int channels,
-                                  double correlationX, double correlationY, double effectivePixels,
+public record DifferenceSnrResult(SampleStats signal, double averageMean, double meanDifference, double sigmaMagnitude,
+                                  double magnitudeSnr, Interval magnitudeSnrCi95, CorrectedSnr figures,
+                                  SpatialCorrelation.Result correlation, double effectivePixels, int channels,
                                   List<Warning> warnings) {
     public DifferenceSnrResult {
         warnings = List.copyOf(warnings);
+    }
+
+    /** The corrected per-channel noise SD. */
+    public double sigma() {
+        return figures.sigma();
+    }
+
+    public Interval sigmaCi95() {
+        return figures.sigmaCi95();
+    }
+
+    /** The corrected SNR {@code A / sigma}. */
+    public double snr() {
+        return figures.snr();
+    }
+
+    public Interval snrCi95() {
+        return figures.snrCi95();
     }
 }

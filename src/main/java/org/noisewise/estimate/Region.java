@@ -23,18 +23,19 @@ public record Region(String name, int[] indices) {
                     + "): give a width and height of at least 1 pixel");
         }
         if (x < 0 || y < 0 || (long) x + w > width || (long) y + h > height) {
-            throw new InputException("region '" + name + "' (x=" + x + ", y=" + y + ", w=" + w + ", h=" + h
-                    + ") lies partly outside the " + width + "x" + height
-                    + " image: move or shrink it so that it fits");
+            throw new InputException(outside(name, x, y, w, h, width, height));
         }
-        int[] idx = new int[w * h];
-        int k = 0;
-        for (int yy = y; yy < y + h; yy++) {
-            for (int xx = x; xx < x + w; xx++) {
-                idx[k++] = yy * width + xx;
-            }
-        }
-        return new Region(name, idx);
+        return new Region(name, rectangleIndices(x, y, w, h, width));
+    }
+
+    /**
+     * The message for a region that does not fit the image: "partly" or "entirely" outside, and what to do.
+     */
+    public static String outside(String name, int x, int y, int w, int h, int width, int height) {
+        boolean entirely = x >= width || y >= height || (long) x + w <= 0 || (long) y + h <= 0;
+        return "region '" + name + "' (x=" + x + ", y=" + y + ", w=" + w + ", h=" + h + ") lies "
+                + (entirely ? "entirely" : "partly") + " outside the " + width + "x" + height + " image: "
+                + (entirely ? "move it onto the image" : "move or shrink it so that it fits");
     }
 
     /** The pixel indices of the ellipse inscribed in {@code (x, y, w, h)} (pixel centres inside). */
@@ -58,6 +59,32 @@ public record Region(String name, int[] indices) {
 
     public int size() {
         return indices.length;
+    }
+
+    /** The centroid {@code (x, y)} of the pixel centres (at +0.5) in a plane {@code width} pixels wide. */
+    public double[] centroid(int width) {
+        double sx = 0;
+        double sy = 0;
+        for (int i : indices) {
+            sx += i % width + 0.5;
+            sy += i / width + 0.5;
+        }
+        return new double[] {sx / indices.length, sy / indices.length};
+    }
+
+    /**
+     * The indices of the rectangle {@code (x, y, w, h)}, row by row, in a plane {@code width} pixels wide
+     * (the caller has checked that it fits).
+     */
+    public static int[] rectangleIndices(int x, int y, int w, int h, int width) {
+        int[] idx = new int[w * h];
+        int k = 0;
+        for (int yy = y; yy < y + h; yy++) {
+            for (int xx = x; xx < x + w; xx++) {
+                idx[k++] = yy * width + xx;
+            }
+        }
+        return idx;
     }
 
     @Override

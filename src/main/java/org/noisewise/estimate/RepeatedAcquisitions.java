@@ -6,7 +6,6 @@ import java.util.Locale;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.DoubleConsumer;
 import java.util.stream.IntStream;
-import org.apache.commons.math3.distribution.ChiSquaredDistribution;
 import org.apache.commons.math3.special.Gamma;
 
 /**
@@ -96,13 +95,43 @@ public final class RepeatedAcquisitions {
         return Math.sqrt(nu / 2.0) * Math.exp(Gamma.logGamma((nu - 1) / 2.0) - Gamma.logGamma(nu / 2.0));
     }
 
+    /** The repeated frames of one slice, read one calibrated plane at a time. */
+    public interface Frames {
+        int count();
+
+        float[] plane(int frame) throws InputException;
+
+        /** Frames already in memory. */
+        static Frames of(float[][] frames) {
+            return new Frames() {
+                @Override
+                public int count() {
+                    return frames.length;
+                }
+
+                @Override
+                public float[] plane(int frame) {
+                    return frames[frame];
+                }
+            };
+        }
+    }
+
     /**
-     * Region summary of the maps, optionally with Koay-Basser correction of the magnitude bias.
+     * Region summary of the maps, corrected for the magnitude bias (Koay and Basser 2006, L channels).
      *
-     * @param rician   apply the correction (for low SNR)
+     * <p>The magnitude mean {@code S} is the region mean of the mean map, the magnitude SD
+     * {@code s = sqrt(region mean of the per-pixel variances)} (pooled, {@code n (K - 1)} degrees of
+     * freedom for independent pixels). Spatial correlation of the noise is measured on the temporal
+     * residuals {@code x_f - mean} over the region, pooled over the frames (their spatial mean is not
+     * estimated, so no mean-removal bias arises): the squared sum divides the degrees of freedom of
+     * {@code s}, the linear sum those of {@code S}. {@code S} and {@code s} then go through
+     * {@link CorrectedSnr#meanAndSd}.
+     *
+     * @param frames   the frames the maps were made from (for the residual correlation)
      * @param channels receive channels L for the noise model
      */
-    public static RepeatedSnrResult summarize(Maps maps, Region signal, boolean rician, int channels)
+    public static RepeatedSnrResult summarize(Maps maps, Frames frames, Region signal, int channels)
             throws InputException {
         if (signal == null) {
             throw new InputException("no signal region: mark the region to summarise");
@@ -110,50 +139,78 @@ public final class RepeatedAcquisitions {
         double[] means = signal.values(maps.mean());
         double[] sds = signal.values(maps.sd());
         int n = means.length;
+        int k = maps.repeats();
         SampleStats meanStats = SampleStats.of(means);
         double varSum = 0;
+        int constant = 0;
         for (double s : sds) {
             varSum += s * s;
+            constant += s == 0 ? 1 : 0;
         }
-        double pooledVar = varSum / n;
-        double sigma = Math.sqrt(pooledVar);
-        if (!(sigma > 0)) {
+        double s = Math.sqrt(varSum / n);
+        if (!(s > 0)) {
             throw new InputException("the repeats are identical in region '" + signal.name()
                     + "': there is no noise to measure; check that the stack holds separate acquisitions");
         }
-        double dof = n * (maps.repeats() - 1.0);
-        ChiSquaredDistribution chi2 = new ChiSquaredDistribution(null, dof);
-        Interval sigmaCi = new Interval(sigma * Math.sqrt(dof / chi2.inverseCumulativeProbability(0.975)),
-                sigma * Math.sqrt(dof / chi2.inverseCumulativeProbability(0.025)));
-        double signalMean = meanStats.mean();
-        // the spread of the region mean: pixel-to-pixel variation of the temporal means
-        double signalSe = n > 1 ? meanStats.standardError() : sigma / Math.sqrt(maps.repeats());
-        double snr = signalMean / sigma;
-        Interval snrCi = SnrMath.snrInterval(signalMean, signalSe, sigma, sigmaCi);
-        double mapMean = 0;
-        for (double v : signal.values(maps.snr())) {
-            mapMean += v;
+        SpatialCorrelation.Result corr = residualCorrelation(maps, frames, signal);
+        double seLogS = Math.sqrt(corr.squared() / (2.0 * n * (k - 1.0)));
+        double seMean = s * Math.sqrt(corr.linear() / ((double) n * k));
+        CorrectedSnr figures = CorrectedSnr.meanAndSd(meanStats.mean(), seMean, s, seLogS, channels);
+        double plain = meanStats.mean() / s;
+        double seLogPlain = Math.sqrt(Math.pow(seMean / meanStats.mean(), 2) + seLogS * seLogS);
+        Interval plainCi = meanStats.mean() > 0 ? new Interval(plain * Math.exp(-Levels.Z95 * seLogPlain),
+                plain * Math.exp(Levels.Z95 * seLogPlain)) : new Interval(Double.NaN, Double.NaN);
+        double mapSum = 0;
+        int mapCount = 0;
+        for (int i : signal.indices()) {
+            float v = maps.snr()[i];
+            if (Float.isFinite(v)) {
+                mapSum += v;
+                mapCount++;
+            }
         }
-        mapMean /= n;
         List<Warning> warnings = new ArrayList<>();
-        KoayBasser.Correction corr = null;
-        if (rician) {
-            corr = KoayBasser.correct(signalMean, sigma, channels);
-        } else if (snr < SnrMath.LOW_SNR_LIMIT && signalMean > 0) {
-            KoayBasser.Correction c = KoayBasser.correct(signalMean, sigma, channels);
-            warnings.add(new Warning("low_snr", String.format(Locale.ROOT,
-                    "SNR %.2f is below %.0f: the magnitude mean is biased upward and the magnitude SD downward by "
-                            + "noise; Koay-Basser correction gives signal %.4g and sigma %.4g (SNR %.2f). Use the Rician "
-                            + "correction option.", snr, SnrMath.LOW_SNR_LIMIT, c.amplitude(), c.sigma(),
-                    c.amplitude() / c.sigma())));
+        if (constant > 0) {
+            warnings.add(new Warning("constant_pixels", String.format(Locale.ROOT,
+                    "%d pixel(s) of region '%s' have the same value in every repeat (no temporal noise: saturated, "
+                            + "masked or copied frames); their SNR-map value is undefined and left out of the map mean",
+                    constant, signal.name())));
         }
-        if (maps.repeats() < 8) {
+        if (corr.correlated() && Math.max(corr.neighbourX(), corr.neighbourY()) > 0.1) {
+            warnings.add(new Warning("correlated_noise", String.format(Locale.ROOT,
+                    "neighbouring pixels' noise correlates (%.2f along x, %.2f along y in the temporal residuals): "
+                            + "interpolation, zero-filling or filtering; intervals use an effective pixel count of "
+                            + "%.0f of %d", corr.neighbourX(), corr.neighbourY(), n / corr.squared(), n)));
+        }
+        if (k < 8) {
+            double b = snrMapBias(k);
             warnings.add(new Warning("few_repeats", String.format(Locale.ROOT,
-                    "only %d repeats: each pixel's SD is rough and the SNR map's pixel values scatter widely "
-                            + "(their mean is about %.2f times too high); rely on the region summary", maps.repeats(),
-                    snrMapBias(maps.repeats()))));
+                    "only %d repeats: each pixel's SD is rough and the SNR map's pixel values scatter widely (%s); "
+                            + "rely on the region summary", k, Double.isFinite(b)
+                            ? String.format(Locale.ROOT, "their mean is about %.2f times too high", b)
+                            : "with 2 repeats their mean has no finite expectation")));
         }
-        return new RepeatedSnrResult(maps.repeats(), n, signalMean, sigma, sigmaCi, snr, snrCi, mapMean,
-                snrMapBias(maps.repeats()), channels, corr, warnings);
+        warnings.addAll(figures.warnings());
+        return new RepeatedSnrResult(k, n, meanStats.mean(), s, plain, plainCi, figures,
+                mapCount > 0 ? mapSum / mapCount : Double.NaN, snrMapBias(k), corr, channels, warnings);
+    }
+
+    /** The spatial correlation of the temporal residuals over the region, pooled over the frames. */
+    static SpatialCorrelation.Result residualCorrelation(Maps maps, Frames frames, Region signal)
+            throws InputException {
+        SpatialCorrelation.Patch p = SpatialCorrelation.Patch.of(signal, maps.width());
+        double[] mean = p.sample(maps.mean(), maps.width());
+        SpatialCorrelation.LagSums sums = new SpatialCorrelation.LagSums(SpatialCorrelation.SQUARE_WINDOW);
+        int k = frames.count();
+        // a few dozen frames measure the correlation well; more only cost time
+        int step = Math.max(1, k / 64);
+        for (int f = 0; f < k; f += step) {
+            double[] r = p.sample(frames.plane(f), maps.width());
+            for (int i = 0; i < r.length; i++) {
+                r[i] -= mean[i];
+            }
+            sums.add(p, r, 0.0);
+        }
+        return sums.result(0);
     }
 }

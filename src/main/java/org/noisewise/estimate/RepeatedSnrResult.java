@@ -5,28 +5,42 @@ import java.util.List;
 /**
  * Region summary of the repeated-acquisition maps.
  *
- * @param repeats     K
- * @param pixels      pixels in the region
- * @param signalMean  region mean of the mean map
- * @param sigma       sqrt(region mean of per-pixel variances)
- * @param sigmaCi95   chi-square interval, n (K - 1) degrees of freedom
- * @param snr         signalMean / sigma
- * @param snrCi95     interval of the SNR
- * @param snrMapMean  the region mean of the SNR map (biased; shown for comparison)
- * @param snrMapBias  expected ratio of snrMapMean to the true SNR, b(K)
- * @param channels    receive channels L
- * @param rician      Koay-Basser correction, or {@code null} when not asked for
- * @param warnings    cautions
+ * @param repeats          K
+ * @param pixels           pixels in the region
+ * @param signalMean       region mean of the mean map (magnitude, uncorrected)
+ * @param sigmaMagnitude   sqrt(region mean of per-pixel variances), uncorrected
+ * @param magnitudeSnr     signalMean / sigmaMagnitude, the plain ratio
+ * @param magnitudeSnrCi95 its interval
+ * @param figures          corrected amplitude, sigma and SNR (Koay-Basser), with intervals
+ * @param snrMapMean       the region mean of the SNR map (biased; shown for comparison)
+ * @param snrMapBias       expected ratio of snrMapMean to the true SNR, b(K)
+ * @param correlation      spatial correlation of the temporal residuals over the region
+ * @param channels         receive channels L
+ * @param warnings         cautions
  */
-public record RepeatedSnrResult(int repeats, int pixels, double signalMean, double sigma, Interval sigmaCi95,
-                                double snr, Interval snrCi95, double snrMapMean, double snrMapBias, int channels,
-                                KoayBasser.Correction rician, List<Warning> warnings) {
+public record RepeatedSnrResult(int repeats, int pixels, double signalMean, double sigmaMagnitude,
+                                double magnitudeSnr, Interval magnitudeSnrCi95, CorrectedSnr figures,
+                                double snrMapMean, double snrMapBias, SpatialCorrelation.Result correlation,
+                                int channels, List<Warning> warnings) {
     public RepeatedSnrResult {
         warnings = List.copyOf(warnings);
     }
 
-    /** The corrected SNR A/sigma, or NaN without correction. */
-    public double correctedSnr() {
-        return rician == null ? Double.NaN : rician.amplitude() / rician.sigma();
+    /** The corrected per-channel noise SD. */
+    public double sigma() {
+        return figures.sigma();
+    }
+
+    public Interval sigmaCi95() {
+        return figures.sigmaCi95();
+    }
+
+    /** The corrected SNR {@code A / sigma}. */
+    public double snr() {
+        return figures.snr();
+    }
+
+    public Interval snrCi95() {
+        return figures.snrCi95();
     }
 }

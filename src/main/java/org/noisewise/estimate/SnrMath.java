@@ -1,18 +1,27 @@
 package org.noisewise.estimate;
 
+import java.util.Locale;
+import java.util.concurrent.ConcurrentHashMap;
 import org.apache.commons.math3.analysis.solvers.BrentSolver;
 import org.noisewise.math.ChiMoments;
+import org.noisewise.math.MeanInverse;
 
 /**
- * SNR from a signal-region mean and a noise sigma, its confidence interval, and the low-SNR bias
- * rule shared by every method.
+ * The log-normal interval of a ratio of a mean to a sigma, and the low-SNR rule shared by every
+ * method, keyed on the channel count.
  */
 public final class SnrMath {
 
-    /** Below this magnitude SNR the Rician bias is no longer negligible (references.md, section 2; common practice). */
-    public static final double LOW_SNR_LIMIT = 4.0;
+    /**
+     * For one channel, magnitudes are treated as Gaussian above an SNR of about 4 (references.md,
+     * section 2; common practice). The rule for L channels keeps the same relative bias of the
+     * magnitude mean, {@code mean_1(4)/4 - 1}, about 3.2%: the threshold rises with L because the
+     * noise floor does ({@code beta_L}: 1.25 sigma for 1 channel, 3.94 sigma for 8).
+     */
+    public static final double ONE_CHANNEL_LIMIT = 4.0;
 
-    private static final double Z975 = 1.959963984540054;
+    private static final double Z975 = Levels.Z95;
+    private static final ConcurrentHashMap<Integer, Double> LIMITS = new ConcurrentHashMap<>();
 
     private SnrMath() {
     }
@@ -20,12 +29,12 @@ public final class SnrMath {
     /**
      * 95% interval of {@code S / sigma} by the delta method on the log scale, combining the
      * standard error of the signal mean and the sigma interval (taken as symmetric in log sigma).
-     * When {@code S <= 0} the interval is formed on the linear scale.
+     * When {@code S <= 0} the interval is formed on the linear scale; NaN bounds when either spread is unknown.
      */
     public static Interval snrInterval(double signalMean, double signalSe, double sigma, Interval sigmaCi) {
         double snr = signalMean / sigma;
-        double seLogSigma = (Math.log(sigmaCi.high()) - Math.log(sigmaCi.low())) / (2 * Z975);
-        if (!(sigma > 0) || !Double.isFinite(seLogSigma)) {
+        double seLogSigma = CorrectedSnr.logSe(sigmaCi);
+        if (!(sigma > 0) || !Double.isFinite(seLogSigma) || !Double.isFinite(signalSe)) {
             return new Interval(Double.NaN, Double.NaN);
         }
         if (signalMean > 0) {
@@ -37,42 +46,52 @@ public final class SnrMath {
         return new Interval(snr - Z975 * se, snr + Z975 * se);
     }
 
-    /**
-     * The true {@code A / sigma} whose expected magnitude equals the measured {@code S / sigma}
-     * under the L-channel model, or 0 when the measured value is at or below the pure-noise mean.
-     */
+    /** The relative bias of the magnitude mean at which the low-SNR rule fires: {@code mean_1(4)/4 - 1}. */
+    public static double lowSnrBias() {
+        return ChiMoments.mean(1, ONE_CHANNEL_LIMIT) / ONE_CHANNEL_LIMIT - 1.0;
+    }
+
+    /** The SNR below which the magnitude mean of L channels is biased by more than {@link #lowSnrBias()}. */
+    public static double lowSnrLimit(int channels) {
+        return LIMITS.computeIfAbsent(channels, l -> {
+            if (l == 1) {
+                return ONE_CHANNEL_LIMIT;
+            }
+            double bias = lowSnrBias();
+            return new BrentSolver(1e-12, 1e-10).solve(200,
+                    t -> ChiMoments.mean(l, t) / t - 1.0 - bias, 0.5, 200.0 * l);
+        });
+    }
+
+    /** The true {@code A / sigma} whose expected magnitude equals {@code S / sigma}; 0 at or below the floor. */
     public static double trueSnrFromMagnitudeMean(double measuredSnr, int channels) {
-        double floor = ChiMoments.beta(channels);
-        if (!(measuredSnr > floor)) {
-            return 0.0;
-        }
-        // mean(theta) rises from beta_L at theta = 0 and exceeds theta for every theta, so the
-        // root lies in [0, measuredSnr].
-        BrentSolver solver = new BrentSolver(1e-12, 1e-10);
-        return solver.solve(200, t -> ChiMoments.mean(channels, t) - measuredSnr, 0.0, measuredSnr);
+        return MeanInverse.of(channels).theta(measuredSnr);
     }
 
     /**
-     * The low-SNR warning, or {@code null} when {@code S / sigma >= 4}. States how far the
-     * magnitude mean overestimates the true signal at this SNR (from the Rice / noncentral chi
-     * mean) and points to Rician correction.
+     * The low-SNR warning, or {@code null} above {@link #lowSnrLimit}: how far the plain magnitude
+     * ratio overestimates the corrected SNR, and what the correction relies on.
+     *
+     * @param snr          the corrected SNR {@code A / sigma}
+     * @param magnitudeSnr the plain ratio of the magnitude mean to sigma (or to the magnitude SD)
      */
-    public static Warning lowSnrWarning(double measuredSnr, int channels) {
-        if (!(measuredSnr < LOW_SNR_LIMIT)) {
+    public static Warning lowSnrWarning(double snr, double magnitudeSnr, int channels) {
+        double limit = lowSnrLimit(channels);
+        if (!(snr < limit)) {
             return null;
         }
-        double theta = trueSnrFromMagnitudeMean(measuredSnr, channels);
-        String model = channels == 1 ? "Rice model" : "noncentral chi model, " + channels + " channels";
-        if (theta == 0.0) {
-            return new Warning("low_snr", String.format(java.util.Locale.ROOT,
-                    "SNR %.2f is at or below the mean of pure noise (%.3f sigma, %s): the signal region "
-                            + "cannot be told from noise, so this SNR is not meaningful.",
-                    measuredSnr, ChiMoments.beta(channels), model));
+        String model = channels == 1 ? "the Rice model of one channel"
+                : "the noncentral chi model of " + channels + " channels combined by root sum of squares";
+        if (!(snr > 0)) {
+            return new Warning("low_snr", String.format(Locale.ROOT,
+                    "the magnitude mean (%.3g sigma) is at or below the mean of pure noise (%.3g sigma, %s): the region "
+                            + "cannot be told from noise, so the SNR is reported as 0",
+                    magnitudeSnr, ChiMoments.beta(channels), model));
         }
-        double bias = 100.0 * (measuredSnr / theta - 1.0);
-        return new Warning("low_snr", String.format(java.util.Locale.ROOT,
-                "SNR %.2f is below %.0f: the magnitude mean is biased upward by noise, here by about %.0f%% "
-                        + "(%s; true SNR about %.2f). Apply Rician bias correction or measure at higher SNR.",
-                measuredSnr, LOW_SNR_LIMIT, bias, model, theta));
+        return new Warning("low_snr", String.format(Locale.ROOT,
+                "SNR %.3g is below %.3g, where the magnitude statistics of %d channel%s are biased by noise: the plain "
+                        + "ratio would be %.3g (%+.0f%%); the figures reported are corrected under %s, so they rely on the "
+                        + "channel count being right and the channels being equal and uncorrelated",
+                snr, limit, channels, channels == 1 ? "" : "s", magnitudeSnr, 100 * (magnitudeSnr / snr - 1), model));
     }
 }

@@ -13,22 +13,20 @@ import java.util.List;
 import org.noisewise.diagnose.BackgroundDiagnostics;
 import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.InputException;
-import org.noisewise.estimate.Region;
-import org.noisewise.io.BackgroundValues;
-import org.noisewise.io.HistogramPlot;
-import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.ImageWriter;
-import org.noisewise.report.MethodRows;
+import org.noisewise.measure.CheckMeasure;
+import org.noisewise.measure.Measurement;
 
 /**
  * {@code Plugins>Noisewise>Background Noise Check...}: does the background behave like magnitude
  * noise? Histogram with the fitted Rayleigh / chi(2L) curve and a Gaussian, bootstrap goodness of
- * fit, agreement of the four sigma estimators, zeros and clipping, and a verdict with reasons.
+ * fit, agreement of the four sigma estimators, zeros, clipping and quantisation, and a verdict.
  *
- * <p>Macro keys: {@code channels} (L or auto), {@code phase} (as in the background command), {@code plot} (show the histogram plot), {@code png} (a file
- * to save the plot to, optional), {@code region_N} roles. Background regions: ROI Manager regions
- * named {@code background/bg/air/noise...}, else every ROI Manager region when none has a role, else
- * the selection.
+ * <p>Macro keys: {@code channels} (L or auto), {@code phase} (as in the background command),
+ * {@code plot} (show the histogram plot), {@code png} (a file to save the plot to, optional),
+ * {@code replace} (replace an existing PNG file), {@code append}, {@code role_<name>}. Background
+ * regions: ROI Manager regions named {@code background/bg/air/noise...}, else every ROI Manager region
+ * when none has a role, else the selection.
  */
 public class BackgroundCheckCommand implements PlugIn {
 
@@ -40,41 +38,57 @@ public class BackgroundCheckCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus imp = WindowManager.getCurrentImage();
+        ImagePlus imp = Face.currentImage(TITLE);
         if (imp == null) {
-            IJ.noImage();
             return;
         }
-        RegionRoles regions = RegionRoles.of(imp);
-        GenericDialog gd = new GenericDialog(TITLE);
-        DialogFields.addChannels(gd);
-        DialogFields.addPhase(gd, imp);
-        gd.addCheckbox("Plot histogram and fit", true);
-        gd.addStringField("PNG file for the plot (optional):", "", 30);
-        regions.addFields(gd);
-        gd.addHelp("<html><b>Background Noise Check</b><br>Tests whether the background regions hold "
-                + "unprocessed magnitude noise (Rayleigh, or chi(2L) for L channels): masking, clipping, "
-                + "quantisation, goodness of fit (bootstrap p-value) and agreement of the sigma estimators.</html>");
-        gd.showDialog();
-        if (gd.wasCanceled()) {
-            return;
-        }
-        String channelText = gd.getNextString();
-        PhaseDirection phase = DialogFields.nextPhase(gd);
-        boolean plot = gd.getNextBoolean();
-        String png = gd.getNextString().trim();
-        regions.readFields(gd);
         try {
-            Integer channels = DialogFields.parseChannels(channelText);
-            Output out = process(imp, imp.getCurrentSlice(), regions.signalRegions(), regions.backgroundRegions(),
-                    new BackgroundDiagnostics.Options(channels, phase, BackgroundValues.storage(imp)));
-            out.table().show(tableTitle(imp));
+            Face.checkImage(imp, TITLE);
+            RegionRoles regions = RegionRoles.of(imp);
+            Face.requireRegions(regions, "The check needs background regions in air.");
+            GenericDialog gd = new GenericDialog(TITLE);
+            DialogFields.addChannels(gd);
+            DialogFields.addPhase(gd, imp);
+            gd.addCheckbox("Plot histogram and fit", true);
+            gd.addStringField("PNG file for the plot (optional):", "", 30);
+            gd.addCheckbox("Replace existing files", false);
+            regions.addFields(gd);
+            Face.addAppend(gd);
+            gd.addHelp(Face.help("check"));
+            gd.showDialog();
+            if (gd.wasCanceled()) {
+                return;
+            }
+            Integer channels = DialogFields.parseChannels(gd.getNextString());
+            PhaseDirection phase = DialogFields.nextPhase(gd);
+            boolean plot = gd.getNextBoolean();
+            String png = gd.getNextString().trim();
+            boolean replace = gd.getNextBoolean();
+            regions.readFields(gd);
+            boolean append = gd.getNextBoolean();
             if (!png.isEmpty()) {
-                ImageWriter.savePng(out.plot().getImagePlus(), Path.of(png), true);
+                ImageWriter.checkWritable(Path.of(png), replace, DialogFields.sourceFile(imp));
+            }
+            List<Roi> signal = regions.signalRegions();
+            List<Roi> background = regions.backgroundRegions();
+            Measurement m = measure(imp, imp.getCurrentSlice(), signal, background,
+                    new CheckMeasure.Options(channels, phase));
+            Face.show(TITLE, imp, m.rows(), append);
+            Face.log(TITLE, m.notes());
+            if (!png.isEmpty()) {
+                ImageWriter.savePng(m.plots().get(0).getImagePlus(), Path.of(png), replace,
+                        DialogFields.sourceFile(imp));
             }
             if (plot) {
-                out.plot().show();
+                Plot p = m.plots().get(0);
+                p.show();
+                if (p.getImagePlus() != null) {
+                    p.getImagePlus().setTitle(Face.uniqueTitle(p.getTitle()));
+                }
             }
+            Face.overlay(imp, background.contains(signal.isEmpty() ? null : signal.get(0)) ? List.of() : signal,
+                    background);
+            Face.reactivate(imp);
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
         } catch (RuntimeException e) {
@@ -82,14 +96,9 @@ public class BackgroundCheckCommand implements PlugIn {
         }
     }
 
-    public static String tableTitle(ImagePlus imp) {
-        return "Background check - " + imp.getTitle();
-    }
-
     /** Checks slice {@code slice} (1-based) with a stated channel count. Never modifies {@code imp}. */
     public static Output process(ImagePlus imp, int slice, List<Roi> background, int channels) throws InputException {
-        return process(imp, slice, List.of(), background,
-                new BackgroundDiagnostics.Options(channels, PhaseDirection.UNKNOWN, BackgroundValues.storage(imp)));
+        return process(imp, slice, List.of(), background, new CheckMeasure.Options(channels, PhaseDirection.UNKNOWN));
     }
 
     /**
@@ -97,22 +106,26 @@ public class BackgroundCheckCommand implements PlugIn {
      * regions lie left/right of the object and which above/below it. Never modifies {@code imp}.
      */
     public static Output process(ImagePlus imp, int slice, List<Roi> signal, List<Roi> background,
-                                 BackgroundDiagnostics.Options options) throws InputException {
-        ImagePlanes.requireGrayscale(imp);
+                                 CheckMeasure.Options options) throws InputException {
+        Measurement m = measure(imp, slice, signal, background, options);
+        return new Output(null, Tables.toResultsTable(m.rows()), m.plots().get(0));
+    }
+
+    static Measurement measure(ImagePlus imp, int slice, List<Roi> signal, List<Roi> background,
+                               CheckMeasure.Options options) throws InputException {
+        Face.checkImage(imp, TITLE);
         if (background == null || background.isEmpty()) {
-            throw new InputException("no background region: add regions in air to the ROI Manager and name them "
-                    + "'background', 'bg', 'air' or 'noise'");
+            throw new InputException("There is no background region: add regions in air to the ROI Manager and name "
+                    + "them 'background', 'bg', 'air' or 'noise'.");
         }
-        List<Region> regions = RegionRoles.toRegions(background, "background", imp.getWidth(), imp.getHeight());
-        float[] px = ImagePlanes.calibratedPixels(imp, slice);
-        double[] values = Region.pooledMagnitudes(px, regions);
-        Region sig = signal == null || signal.isEmpty() || background.contains(signal.get(0)) ? null
-                : RegionRoles.toRegions(signal.subList(0, 1), "signal", imp.getWidth(), imp.getHeight()).get(0);
-        BackgroundDiagnostics.Diagnosis r = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(), sig,
-                regions, options);
-        String unit = ImagePlanes.valueUnit(imp);
-        ResultsTable rt = Tables.toResultsTable(List.of(MethodRows.check(imp.getTitle(), slice, unit, r)));
-        Plot plot = HistogramPlot.build("Background histogram - " + imp.getTitle(), values, r, unit);
-        return new Output(r, rt, plot);
+        List<Roi> sig = signal == null || signal.isEmpty() || background.contains(signal.get(0)) ? List.of()
+                : signal.subList(0, 1);
+        return CheckMeasure.run(imp, imp.getTitle(), RegionRoles.roles(sig, background, imp), options,
+                new int[] {slice}, ImageJProgress.INSTANCE);
+    }
+
+    /** The title of the table a first run on {@code imp} shows (later runs get unique titles). */
+    public static String tableTitle(ImagePlus imp) {
+        return TITLE + " - " + imp.getTitle();
     }
 }

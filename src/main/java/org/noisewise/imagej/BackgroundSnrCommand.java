@@ -7,33 +7,29 @@ import ij.gui.GenericDialog;
 import ij.gui.Roi;
 import ij.measure.ResultsTable;
 import ij.plugin.PlugIn;
-import ij.plugin.frame.RoiManager;
 import java.util.ArrayList;
 import java.util.List;
 import org.noisewise.diagnose.PhaseDirection;
-import org.noisewise.estimate.BackgroundSnr;
-import org.noisewise.estimate.BackgroundSnrResult;
 import org.noisewise.estimate.InputException;
-import org.noisewise.estimate.Region;
 import org.noisewise.estimate.SigmaEstimator;
-import org.noisewise.io.BackgroundValues;
-import org.noisewise.io.ImagePlanes;
-import org.noisewise.io.RoiRegions;
-import org.noisewise.io.RoleNames;
-import org.noisewise.report.BackgroundSnrRows;
-import org.noisewise.report.ResultRow;
+import org.noisewise.measure.BackgroundMeasure;
+import org.noisewise.measure.Measurement;
+import org.noisewise.measure.Planes;
+import org.noisewise.measure.Progress;
 
 /**
- * {@code Plugins>Noisewise>SNR (Background Regions)...}: the single-image SNR with the background
- * sigma corrected for the Rayleigh / chi(2L) distribution of magnitude noise.
+ * {@code Plugins>Noisewise>SNR (Background Regions)...}: the single-image SNR, sigma from background
+ * regions under the Rayleigh / chi(2L) model, the signal amplitude corrected for magnitude bias.
  *
- * <p>Macro keys: {@code channels} (L, or {@code auto} to estimate the effective count), {@code estimator} ([Maximum likelihood], [Mean-based],
- * [SD-based], [Median-based]), {@code slices} ([Current slice] or [All slices]), {@code roles}
- * ([Region names] or [Selection is signal]), {@code phase} ([Rows (ghosts left/right)],
- * [Columns (ghosts above/below)] or [Unknown]; default from DICOM 0018,1312), and, with region names, {@code region_1},
- * {@code region_2}, ... (signal, background or ignore) to override the role a name implies.
+ * <p>Macro keys: {@code channels} (L, or {@code auto} to estimate the effective count), {@code estimator}
+ * ([Maximum likelihood], [Mean-based], [SD-based], [Median-based]), {@code slices} ([Current slice] or
+ * [All slices]), {@code roles} ([Region names] or [Selection is signal]), {@code phase}
+ * ([Rows (ghosts left/right)], [Columns (ghosts above/below)] or [Unknown]; default from DICOM
+ * 0018,1312), {@code second} (title of a second identical acquisition to check the background against,
+ * or [None]), {@code append} (rows to one table for all images), and {@code role_<name>} (signal,
+ * background or ignore) for each ROI Manager region whose name implies no role.
  * Example: {@code run("SNR (Background Regions)...", "channels=1 estimator=[Maximum likelihood]
- * slices=[Current slice] roles=[Region names]");}
+ * slices=[Current slice] roles=[Region names] second=None");}
  */
 public class BackgroundSnrCommand implements PlugIn {
 
@@ -42,79 +38,68 @@ public class BackgroundSnrCommand implements PlugIn {
     static final String ALL = "All slices";
     static final String BY_NAME = "Region names";
     static final String BY_SELECTION = "Selection is signal";
-    static final String HELP = "<html><b>SNR (Background Regions)</b><br>"
-            + "Signal region: a ROI Manager region named <i>signal...</i> (or the active selection).<br>"
-            + "Background regions: regions named <i>background..., bg..., air...</i> or <i>noise...</i>, in air, "
-            + "clear of the object and of ghosts.<br>Channels: number of receive channels combined by root sum "
-            + "of squares (1 for a single-channel or phase-array image reconstructed to one channel).<br>"
-            + "See the README section 'SNR (Background Regions)' for the method and its limits.</html>";
+    static final String NONE = "None";
 
     @Override
     public void run(String arg) {
-        ImagePlus imp = WindowManager.getCurrentImage();
+        ImagePlus imp = Face.currentImage(TITLE);
         if (imp == null) {
-            IJ.noImage();
             return;
-        }
-        RoiManager rm = RoiManager.getInstance();
-        Roi[] managed = rm == null ? new Roi[0] : rm.getSelectedRoisAsArray();
-        Roi selection = imp.getRoi();
-
-        GenericDialog gd = new GenericDialog(TITLE);
-        DialogFields.addChannels(gd);
-        gd.addChoice("Estimator:", SigmaEstimator.labels(), SigmaEstimator.ML.label());
-        gd.addChoice("Slices:", new String[] {CURRENT, ALL}, CURRENT);
-        boolean named = hasSignalName(managed);
-        String defaultRoles = !named && selection != null && selection.isArea() ? BY_SELECTION : BY_NAME;
-        gd.addChoice("Roles from:", new String[] {BY_NAME, BY_SELECTION}, defaultRoles);
-        DialogFields.addPhase(gd, imp);
-        for (int i = 0; i < managed.length; i++) {
-            String name = RoiRegions.nameOf(managed[i], i);
-            gd.addChoice("Region_" + (i + 1) + " (" + name + "):", RoleNames.labels(),
-                    RoleNames.fromName(managed[i].getName()).label());
-        }
-        gd.addHelp(HELP);
-        gd.showDialog();
-        if (gd.wasCanceled()) {
-            return;
-        }
-        String channelText = gd.getNextString();
-        SigmaEstimator estimator = SigmaEstimator.parse(gd.getNextChoice());
-        boolean all = ALL.equals(gd.getNextChoice());
-        boolean bySelection = BY_SELECTION.equals(gd.getNextChoice());
-        PhaseDirection phase = DialogFields.nextPhase(gd);
-        RoleNames[] roles = new RoleNames[managed.length];
-        for (int i = 0; i < managed.length; i++) {
-            roles[i] = RoleNames.fromLabel(gd.getNextChoice());
         }
         try {
-            Integer channels = DialogFields.parseChannels(channelText);
+            Face.checkImage(imp, TITLE);
+            RegionRoles regions = RegionRoles.of(imp);
+            Face.requireRegions(regions, "The background method needs one signal region and at least one background "
+                    + "region in air.");
+            GenericDialog gd = new GenericDialog(TITLE);
+            DialogFields.addChannels(gd);
+            gd.addChoice("Estimator:", SigmaEstimator.labels(), SigmaEstimator.ML.label());
+            gd.addChoice("Slices:", new String[] {CURRENT, ALL}, CURRENT);
+            boolean named = regions.anyNamed(org.noisewise.io.RoleNames.SIGNAL);
+            gd.addChoice("Roles from:", new String[] {BY_NAME, BY_SELECTION},
+                    !named && regions.selection != null ? BY_SELECTION : BY_NAME);
+            DialogFields.addPhase(gd, imp);
+            gd.addChoice("Second acquisition (optional check):", DialogFields.otherImages(imp, NONE), NONE);
+            regions.addFields(gd);
+            Face.addAppend(gd);
+            gd.addHelp(Face.help("background"));
+            gd.showDialog();
+            if (gd.wasCanceled()) {
+                return;
+            }
+            Integer channels = DialogFields.parseChannels(gd.getNextString());
+            SigmaEstimator estimator = SigmaEstimator.parse(gd.getNextChoice());
+            boolean all = ALL.equals(gd.getNextChoice());
+            boolean bySelection = BY_SELECTION.equals(gd.getNextChoice());
+            PhaseDirection phase = DialogFields.nextPhase(gd);
+            String secondTitle = gd.getNextChoice();
+            regions.readFields(gd);
+            boolean append = gd.getNextBoolean();
             Roi signal;
             List<Roi> background = new ArrayList<>();
             if (bySelection) {
-                if (selection == null || !selection.isArea()) {
-                    throw new InputException("no area selection on the image: draw the signal region, "
-                            + "or choose 'Roles from: Region names'");
+                if (regions.selection == null) {
+                    throw new InputException("There is no area selection on the image: draw the signal region, or "
+                            + "choose 'Roles from: Region names'.");
                 }
-                signal = selection;
-                background.addAll(List.of(managed));
+                signal = regions.selection;
+                background.addAll(List.of(regions.managed));
             } else {
-                signal = null;
-                for (int i = 0; i < managed.length; i++) {
-                    if (roles[i] == RoleNames.SIGNAL) {
-                        if (signal != null) {
-                            throw new InputException("more than one region has the signal role: keep one "
-                                    + "(rename the others or set them to background or ignore)");
-                        }
-                        signal = managed[i];
-                    } else if (roles[i] == RoleNames.BACKGROUND) {
-                        background.add(managed[i]);
-                    }
+                List<Roi> sig = regions.withRole(org.noisewise.io.RoleNames.SIGNAL);
+                if (sig.size() > 1) {
+                    throw new InputException("More than one ROI Manager region has the signal role: keep one (rename the "
+                            + "others, or give them another role).");
                 }
+                signal = sig.isEmpty() ? null : sig.get(0);
+                background.addAll(regions.withRole(org.noisewise.io.RoleNames.BACKGROUND));
             }
-            ResultsTable rt = process(imp, signal, background,
-                    new BackgroundSnr.Options(channels, estimator, phase, BackgroundValues.storage(imp)), all);
-            rt.show(tableTitle(imp));
+            ImagePlus second = NONE.equals(secondTitle) ? null : WindowManager.getImage(secondTitle);
+            Measurement m = measure(imp, signal, background, new BackgroundMeasure.Options(channels, estimator,
+                    phase), all, second);
+            Face.show(TITLE, imp, m.rows(), append);
+            Face.log(TITLE, m.notes());
+            Face.overlay(imp, List.of(signal), background);
+            Face.reactivate(imp);
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
         } catch (RuntimeException e) {
@@ -122,64 +107,36 @@ public class BackgroundSnrCommand implements PlugIn {
         }
     }
 
-    /** The table's window title for this image. */
-    public static String tableTitle(ImagePlus imp) {
-        return "SNR background - " + imp.getTitle();
-    }
-
     /**
      * Measures the image without any dialog (for scripts and tests). Never modifies {@code imp}.
      *
+     * @param second a second identical acquisition to check the background against, or null
      * @return a table with one row per measured slice
      */
-    public static ResultsTable process(ImagePlus imp, Roi signal, List<Roi> background,
-                                       BackgroundSnr.Options options, boolean allSlices) throws InputException {
-        List<ResultRow> rows = measure(imp, signal, background, options, allSlices);
-        return Tables.toResultsTable(rows);
+    public static ResultsTable process(ImagePlus imp, Roi signal, List<Roi> background, BackgroundMeasure.Options o,
+                                       boolean allSlices, ImagePlus second) throws InputException {
+        return Tables.toResultsTable(measure(imp, signal, background, o, allSlices, second).rows());
     }
 
-    /** The rows of {@link #process}, one per slice. */
-    public static List<ResultRow> measure(ImagePlus imp, Roi signal, List<Roi> background,
-                                          BackgroundSnr.Options options, boolean allSlices) throws InputException {
-        ImagePlanes.requireGrayscale(imp);
+    /** The measurement behind {@link #process}, with its notes. */
+    public static Measurement measure(ImagePlus imp, Roi signal, List<Roi> background, BackgroundMeasure.Options o,
+                                      boolean allSlices, ImagePlus second) throws InputException {
+        Face.checkImage(imp, TITLE);
         if (signal == null) {
-            throw new InputException("no signal region: name a ROI Manager region 'signal' or draw a "
-                    + "selection and choose 'Roles from: Selection is signal'");
+            throw new InputException("There is no signal region: name a ROI Manager region 'signal', or draw a "
+                    + "selection and choose 'Roles from: Selection is signal'.");
         }
         if (background.isEmpty()) {
-            throw new InputException("no background region: add regions in air to the ROI Manager and "
-                    + "name them 'background', 'bg', 'air' or 'noise'");
+            throw new InputException("There is no background region: add regions in air to the ROI Manager and name "
+                    + "them 'background', 'bg', 'air' or 'noise'.");
         }
-        int w = imp.getWidth();
-        int h = imp.getHeight();
-        Region sig = RoiRegions.toRegion(signal, signal.getName() == null ? "signal" : signal.getName(), w, h);
-        List<Region> bg = new ArrayList<>();
-        for (int i = 0; i < background.size(); i++) {
-            Roi r = background.get(i);
-            bg.add(RoiRegions.toRegion(r, RoiRegions.nameOf(r, i), w, h));
-        }
-        int first = allSlices ? 1 : imp.getCurrentSlice();
-        int last = allSlices ? imp.getStackSize() : imp.getCurrentSlice();
-        String unit = ImagePlanes.valueUnit(imp);
-        List<ResultRow> rows = new ArrayList<>();
-        for (int n = first; n <= last; n++) {
-            if (last > first) {
-                IJ.showProgress(n - first, last - first + 1);
-            }
-            float[] px = ImagePlanes.calibratedPixels(imp, n);
-            BackgroundSnrResult r = BackgroundSnr.analyze(px, w, h, sig, bg, options);
-            rows.add(BackgroundSnrRows.row(imp.getTitle(), n, unit, r));
-        }
-        IJ.showProgress(1.0);
-        return rows;
+        int[] planes = allSlices ? Planes.all(imp) : new int[] {imp.getCurrentSlice()};
+        return BackgroundMeasure.run(imp, imp.getTitle(), RegionRoles.roles(List.of(signal), background, imp), o,
+                planes, second, ImageJProgress.INSTANCE);
     }
 
-    private static boolean hasSignalName(Roi[] rois) {
-        for (Roi r : rois) {
-            if (RoleNames.fromName(r.getName()) == RoleNames.SIGNAL) {
-                return true;
-            }
-        }
-        return false;
+    /** The title of the table a first run on {@code imp} shows (later runs get unique titles). */
+    public static String tableTitle(ImagePlus imp) {
+        return TITLE + " - " + imp.getTitle();
     }
 }

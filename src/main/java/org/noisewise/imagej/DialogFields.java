@@ -1,8 +1,11 @@
 package org.noisewise.imagej;
 
 import ij.ImagePlus;
+import ij.WindowManager;
 import ij.gui.GenericDialog;
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.List;
 import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.InputException;
 import org.noisewise.io.ImageMetadata;
@@ -31,6 +34,31 @@ final class DialogFields {
         return PhaseDirection.values()[Arrays.asList(PHASES).indexOf(gd.getNextChoice())];
     }
 
+    /** {@code none} followed by the titles of the other open images. */
+    static String[] otherImages(ImagePlus imp, String none) {
+        List<String> titles = new ArrayList<>();
+        titles.add(none);
+        int[] ids = WindowManager.getIDList();
+        if (ids != null) {
+            for (int id : ids) {
+                ImagePlus other = WindowManager.getImage(id);
+                if (other != null && other != imp) {
+                    titles.add(other.getTitle());
+                }
+            }
+        }
+        return titles.toArray(new String[0]);
+    }
+
+    /** The file the image was opened from, or null (so outputs never replace it). */
+    static java.nio.file.Path sourceFile(ImagePlus imp) {
+        ij.io.FileInfo fi = imp.getOriginalFileInfo();
+        if (fi == null || fi.fileName == null || fi.directory == null || fi.directory.isEmpty()) {
+            return null;
+        }
+        return java.nio.file.Path.of(fi.directory, fi.fileName);
+    }
+
     /** "auto" gives {@code null} (estimate the channel count); otherwise a whole number of at least 1. */
     static Integer parseChannels(String text) throws InputException {
         String t = text.trim();
@@ -45,6 +73,7 @@ final class DialogFields {
         } catch (NumberFormatException e) {
             // fall through to the message
         }
-        throw new InputException("channels must be a whole number of at least 1, or auto; was '" + text + "'");
+        throw new InputException("The Channels field must be a whole number of at least 1, or auto; it was '" + text
+                + "'.");
     }
 }

@@ -2,24 +2,25 @@ package org.noisewise.imagej;
 
 import ij.IJ;
 import ij.ImagePlus;
-import ij.WindowManager;
 import ij.gui.GenericDialog;
 import ij.gui.Roi;
 import ij.plugin.PlugIn;
 import java.util.List;
 import org.noisewise.estimate.InputException;
-import org.noisewise.estimate.Region;
 import org.noisewise.estimate.RicianCorrection;
-import org.noisewise.io.CorrectedImages;
+import org.noisewise.io.ImagePlanes;
+import org.noisewise.measure.CorrectionMeasure;
+import org.noisewise.measure.Measurement;
 
 /**
  * {@code Plugins>Noisewise>Rician Bias Correction...}: a new 32-bit image with the magnitude noise
- * bias removed pixel by pixel, given sigma (typed in, or measured per slice from background regions
- * by maximum likelihood).
+ * bias removed, given sigma (typed in, or measured per slice from background regions by maximum
+ * likelihood, reported in a table and the Log).
  *
  * <p>Macro keys: {@code sigma} (the per-channel noise SD in calibrated units; 0 = measure from the
- * background regions), {@code channels} (L), {@code method} ([Koay-Basser (mean inversion)] or
- * [Power: sqrt(M^2 - 2L sigma^2)]), {@code region_N} roles.
+ * background regions), {@code channels} (L), {@code method} ([Koay-Basser (mean inversion)],
+ * [Power: sqrt(M^2 - 2L sigma^2)] or [Local second moment (N x N window)]), {@code window} (the local
+ * method's side, odd), {@code append}, {@code role_<name>}.
  */
 public class RicianCorrectionCommand implements PlugIn {
 
@@ -27,33 +28,48 @@ public class RicianCorrectionCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus imp = WindowManager.getCurrentImage();
+        ImagePlus imp = Face.currentImage(TITLE);
         if (imp == null) {
-            IJ.noImage();
             return;
         }
-        RegionRoles regions = RegionRoles.of(imp);
-        GenericDialog gd = new GenericDialog(TITLE);
-        gd.addNumericField("Sigma (0 = measure from background regions):", 0, 4);
-        gd.addNumericField("Channels (L):", 1, 0);
-        gd.addChoice("Method:", RicianCorrection.Method.labels(), RicianCorrection.Method.KOAY_BASSER.label());
-        regions.addFields(gd);
-        gd.addHelp("<html><b>Rician Bias Correction</b><br>Koay-Basser: the amplitude whose expected magnitude "
-                + "equals the pixel value (0 at or below the pure-noise mean).<br>Power: sqrt(M^2 - 2L sigma^2), "
-                + "0 where negative; unbiased in power, biased low near zero.</html>");
-        gd.showDialog();
-        if (gd.wasCanceled()) {
-            return;
-        }
-        double sigma = gd.getNextNumber();
-        int channels = (int) Math.round(gd.getNextNumber());
-        RicianCorrection.Method method = RicianCorrection.Method.parse(gd.getNextChoice());
-        regions.readFields(gd);
         try {
-            if (gd.invalidNumber() || channels < 1) {
-                throw new InputException("sigma must be a number and the channel count a whole number of at least 1");
+            Face.checkImage(imp, TITLE);
+            RegionRoles regions = RegionRoles.of(imp);
+            String unit = ImagePlanes.valueUnit(imp);
+            GenericDialog gd = new GenericDialog(TITLE);
+            gd.addNumericField("Sigma (0 = measure from background regions):", 0, 4, 10, unit);
+            gd.addNumericField("Channels (L):", 1, 0, 4, "(receive channels)");
+            gd.addChoice("Method:", RicianCorrection.Method.labels(), RicianCorrection.Method.KOAY_BASSER.label());
+            gd.addNumericField("Window (local method):", RicianCorrection.DEFAULT_WINDOW, 0, 4, "pixels (odd)");
+            regions.addFields(gd);
+            Face.addAppend(gd);
+            gd.addHelp(Face.help("correction"));
+            gd.showDialog();
+            if (gd.wasCanceled()) {
+                return;
             }
-            process(imp, sigma, sigma == 0 ? regions.backgroundRegions() : List.of(), channels, method).show();
+            double sigma = gd.getNextNumber();
+            int channels = (int) Math.round(gd.getNextNumber());
+            RicianCorrection.Method method = RicianCorrection.Method.parse(gd.getNextChoice());
+            int window = (int) Math.round(gd.getNextNumber());
+            regions.readFields(gd);
+            boolean append = gd.getNextBoolean();
+            if (gd.invalidNumber() || channels < 1) {
+                throw new InputException("Sigma must be a number and Channels a whole number of at least 1.");
+            }
+            List<Roi> background = sigma == 0 ? regions.backgroundRegions() : List.of();
+            if (sigma == 0 && background.isEmpty()) {
+                throw new InputException("Sigma is 0 (measure it) but there are no background regions: type sigma, or "
+                        + "add regions in air named 'background' to the ROI Manager.");
+            }
+            Measurement m = measure(imp, sigma, background, channels, method, window);
+            Face.showNew(m.images().get(0));
+            Face.show(TITLE, imp, m.rows(), append);
+            Face.log(TITLE, m.notes());
+            if (!background.isEmpty()) {
+                Face.overlay(imp, List.of(), background);
+            }
+            Face.reactivate(imp);
         } catch (InputException e) {
             IJ.error(TITLE, e.getMessage());
         } catch (RuntimeException e) {
@@ -62,15 +78,24 @@ public class RicianCorrectionCommand implements PlugIn {
     }
 
     /**
-     * A corrected copy of every slice. With {@code sigma = 0}, sigma is measured on each slice from
-     * {@code background} (maximum likelihood). Never modifies {@code imp}.
+     * A corrected copy of every slice (not shown). With {@code sigma = 0}, sigma is measured on each
+     * slice from {@code background} (maximum likelihood). Never modifies {@code imp}.
      */
     public static ImagePlus process(ImagePlus imp, double sigma, List<Roi> background, int channels,
                                     RicianCorrection.Method method) throws InputException {
-        List<Region> bg = sigma == 0 && background != null && !background.isEmpty()
-                ? RegionRoles.toRegions(background, "background", imp.getWidth(), imp.getHeight()) : List.of();
-        ImagePlus out = CorrectedImages.correct(imp, sigma, bg, channels, method, IJ::showProgress);
-        IJ.showProgress(1.0);
-        return out;
+        return measure(imp, sigma, background, channels, method, RicianCorrection.DEFAULT_WINDOW).images().get(0);
+    }
+
+    static Measurement measure(ImagePlus imp, double sigma, List<Roi> background, int channels,
+                               RicianCorrection.Method method, int window) throws InputException {
+        Face.checkImage(imp, TITLE);
+        return CorrectionMeasure.run(imp, imp.getTitle(), RegionRoles.roles(List.of(),
+                background == null ? List.of() : background, imp),
+                new CorrectionMeasure.Options(sigma, channels, method, window), ImageJProgress.INSTANCE);
+    }
+
+    /** The title of the table a first run on {@code imp} shows (later runs get unique titles). */
+    public static String tableTitle(ImagePlus imp) {
+        return TITLE + " - " + imp.getTitle();
     }
 }

@@ -14,6 +14,12 @@ public final class Tables {
     /** One table row per result row; numbers stay numbers, text and warnings become strings. */
     public static ResultsTable toResultsTable(List<ResultRow> rows) {
         ResultsTable rt = new ResultsTable();
+        append(rt, rows);
+        return rt;
+    }
+
+    /** Appends rows to a table (columns that are new to it are added). */
+    static void append(ResultsTable rt, List<ResultRow> rows) {
         rt.setPrecision(6);
         for (ResultRow row : rows) {
             rt.incrementCounter();
@@ -26,6 +32,5 @@ public final class Tables {
                 }
             }
         }
-        return rt;
     }
 }

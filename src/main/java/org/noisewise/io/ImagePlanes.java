@@ -21,8 +21,9 @@ public final class ImagePlanes {
         }
         int type = imp.getType();
         if (type == ImagePlus.COLOR_RGB || type == ImagePlus.COLOR_256) {
-            throw new InputException("'" + imp.getTitle() + "' is a colour image: Noisewise measures "
-                    + "grayscale magnitude images (8, 16 or 32 bit); open the original data, not a screenshot or an RGB export");
+            throw new InputException("'" + imp.getTitle() + "' is a colour image (" + (type == ImagePlus.COLOR_RGB
+                    ? "RGB" : "8-bit indexed colour, whose values index a palette") + "): Noisewise measures grayscale "
+                    + "magnitude images (8, 16 or 32 bit); open the original data, not a screenshot or a colour export");
         }
     }
 
@@ -50,6 +51,28 @@ public final class ImagePlanes {
             }
         }
         return out;
+    }
+
+    /**
+     * A note when the image carries a colour lookup table (its stored grey values are measured, not the
+     * colours shown), or null.
+     */
+    public static String lookupTableNote(ImagePlus imp) {
+        ImageProcessor ip = imp.getProcessor();
+        if (ip != null && !imp.isComposite() && ip.isColorLut()) {
+            return "'" + imp.getTitle() + "' has a colour lookup table attached: its stored grey values are measured, "
+                    + "not the colours shown";
+        }
+        return null;
+    }
+
+    /** Checks that two images have the same width, height and number of planes. */
+    public static void requireSameShape(ImagePlus a, String titleA, ImagePlus b, String titleB) throws InputException {
+        if (a.getWidth() != b.getWidth() || a.getHeight() != b.getHeight() || a.getStackSize() != b.getStackSize()) {
+            throw new InputException(String.format(java.util.Locale.ROOT, "'%s' (%dx%dx%d) and '%s' (%dx%dx%d) differ "
+                            + "in size: choose two acquisitions of the same matrix and slices", titleA, a.getWidth(),
+                    a.getHeight(), a.getStackSize(), titleB, b.getWidth(), b.getHeight(), b.getStackSize()));
+        }
     }
 
     /** The unit of the calibrated values, "a.u." when ImageJ has none. */

@@ -18,6 +18,32 @@ public final class ImageWriter {
     private ImageWriter() {
     }
 
+    /**
+     * Checks that {@code out} may be written and is none of {@code inputs}: an input is never replaced,
+     * even when replacing is allowed.
+     */
+    public static void checkWritable(Path out, boolean force, Path... inputs) throws InputException {
+        for (Path in : inputs) {
+            if (in != null && sameFile(out, in)) {
+                throw new InputException("'" + out + "' is an input of this run: write the result to another file "
+                        + "(an input is never replaced)");
+            }
+        }
+        checkWritable(out, force);
+    }
+
+    /** Whether two paths name the same file (or would, once {@code a} exists). */
+    static boolean sameFile(Path a, Path b) {
+        try {
+            if (Files.exists(a) && Files.exists(b)) {
+                return Files.isSameFile(a, b);
+            }
+        } catch (IOException e) {
+            // fall back to comparing the paths
+        }
+        return a.toAbsolutePath().normalize().equals(b.toAbsolutePath().normalize());
+    }
+
     /** Checks that {@code out} may be written. */
     public static void checkWritable(Path out, boolean force) throws InputException {
         if (Files.isDirectory(out)) {
@@ -32,20 +58,20 @@ public final class ImageWriter {
         }
     }
 
-    /** Saves {@code imp} as TIFF (a multi-page TIFF for stacks) at {@code out}. */
-    public static void saveTiff(ImagePlus imp, Path out, boolean force) throws InputException {
-        save(out, force, tmp -> imp.getStackSize() > 1 ? new FileSaver(imp).saveAsTiffStack(tmp)
+    /** Saves {@code imp} as TIFF (a multi-page TIFF for stacks) at {@code out}, which is none of {@code inputs}. */
+    public static void saveTiff(ImagePlus imp, Path out, boolean force, Path... inputs) throws InputException {
+        save(out, force, inputs, tmp -> imp.getStackSize() > 1 ? new FileSaver(imp).saveAsTiffStack(tmp)
                 : new FileSaver(imp).saveAsTiff(tmp));
     }
 
-    /** Saves {@code imp} as PNG at {@code out}. */
-    public static void savePng(ImagePlus imp, Path out, boolean force) throws InputException {
-        save(out, force, tmp -> new FileSaver(imp).saveAsPng(tmp));
+    /** Saves {@code imp} as PNG at {@code out}, which is none of {@code inputs}. */
+    public static void savePng(ImagePlus imp, Path out, boolean force, Path... inputs) throws InputException {
+        save(out, force, inputs, tmp -> new FileSaver(imp).saveAsPng(tmp));
     }
 
-    private static void save(Path out, boolean force, java.util.function.Predicate<String> writer)
+    private static void save(Path out, boolean force, Path[] inputs, java.util.function.Predicate<String> writer)
             throws InputException {
-        checkWritable(out, force);
+        checkWritable(out, force, inputs);
         Path tmp = temporaryBeside(out);
         try {
             if (!writer.test(tmp.toString())) {

@@ -21,14 +21,16 @@ public final class ResultImages {
         return imp;
     }
 
-    /** A three-slice stack: mean, SD and SNR maps. */
-    public static ImagePlus mapStack(String title, RepeatedAcquisitions.Maps maps, ImagePlus like) {
+    /** A three-slice stack: temporal mean, temporal SD and SNR maps (slice labels say which, with units). */
+    public static ImagePlus mapStack(String title, RepeatedAcquisitions.Maps maps, ImagePlus like, String unit) {
         ImageStack st = new ImageStack(maps.width(), maps.height());
-        st.addSlice("mean", new FloatProcessor(maps.width(), maps.height(), maps.mean()));
-        st.addSlice("SD", new FloatProcessor(maps.width(), maps.height(), maps.sd()));
-        st.addSlice("SNR", new FloatProcessor(maps.width(), maps.height(), maps.snr()));
+        st.addSlice("temporal mean [" + unit + "]", new FloatProcessor(maps.width(), maps.height(), maps.mean()));
+        st.addSlice("temporal SD [" + unit + "]", new FloatProcessor(maps.width(), maps.height(), maps.sd()));
+        st.addSlice("SNR map (mean/SD)", new FloatProcessor(maps.width(), maps.height(), maps.snr()));
         ImagePlus imp = new ImagePlus(title, st);
         copyCalibration(like, imp, null);
+        imp.setSlice(3);
+        imp.resetDisplayRange();
         return imp;
     }
 

@@ -7,8 +7,9 @@ import org.noisewise.diagnose.BackgroundCheck;
 import org.noisewise.diagnose.BackgroundDiagnostics;
 import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.diagnose.Verdict;
-import org.noisewise.estimate.BackgroundSnr;
-import org.noisewise.estimate.BackgroundSnrResult;
+import org.noisewise.diagnose.BackgroundSnr;
+import org.noisewise.diagnose.BackgroundSnrResult;
+import org.noisewise.estimate.CorrectedSnr;
 import org.noisewise.estimate.DifferenceSnr;
 import org.noisewise.estimate.DifferenceSnrResult;
 import org.noisewise.estimate.InputException;
@@ -51,15 +52,51 @@ public final class PhantomQa {
                         BackgroundCheck.Storage storage, ActionLimits limits, QaRegions.Placement placement) {
     }
 
-    /** Everything measured. */
+    /**
+     * Everything measured.
+     *
+     * @param signalMean the signal region's magnitude mean (uncorrected)
+     * @param figures    corrected amplitude, sigma and SNR with intervals; {@code null} when withheld
+     */
     public record Result(QaRegions.Placement placement, Phantom phantom, String method, double signalMean,
-                         double sigma, Interval sigmaCi95, double snr, Interval snrCi95, Verdict verdict,
-                         QaMetrics.Windows windows, double piu, double nemaNonUniformity, double ghostingPercent,
-                         double[] sideMeans, ActionLimits limits, Boolean piuPasses, Boolean ghostingPasses,
-                         BackgroundDiagnostics.Diagnosis backgroundDiagnosis, double[] backgroundValues,
-                         List<Warning> warnings) {
+                         CorrectedSnr figures, Verdict verdict, QaMetrics.Windows windows, double piu,
+                         double nemaNonUniformity, double ghostingPercent, double[] sideMeans, ActionLimits limits,
+                         Boolean piuPasses, Boolean ghostingPasses, BackgroundDiagnostics.Diagnosis backgroundDiagnosis,
+                         double[] backgroundValues, List<Warning> warnings) {
+        private static final Interval NONE = new Interval(Double.NaN, Double.NaN);
+
         public Result {
+            sideMeans = sideMeans.clone();
+            backgroundValues = backgroundValues.clone();
             warnings = List.copyOf(warnings);
+        }
+
+        @Override
+        public double[] sideMeans() {
+            return sideMeans.clone();
+        }
+
+        @Override
+        public double[] backgroundValues() {
+            return backgroundValues.clone();
+        }
+
+        /** The corrected SNR, NaN when withheld. */
+        public double snr() {
+            return figures == null ? Double.NaN : figures.snr();
+        }
+
+        public Interval snrCi95() {
+            return figures == null ? NONE : figures.snrCi95();
+        }
+
+        /** The corrected sigma, NaN when withheld. */
+        public double sigma() {
+            return figures == null ? Double.NaN : figures.sigma();
+        }
+
+        public Interval sigmaCi95() {
+            return figures == null ? NONE : figures.sigmaCi95();
         }
     }
 
@@ -81,10 +118,7 @@ public final class PhantomQa {
         List<Region> bg = pl.background().stream().map(PlacedRegion::region).toList();
 
         String method;
-        double sigma;
-        Interval sigmaCi;
-        double snr;
-        Interval snrCi;
+        CorrectedSnr figures;
         Verdict verdict = Verdict.VALID;
         BackgroundDiagnostics.Diagnosis diag = null;
         double[] bgValues = new double[0];
@@ -96,10 +130,7 @@ public final class PhantomQa {
             DifferenceSnrResult d = DifferenceSnr.analyze(first, in.frames()[1], w, signal,
                     in.channels() == null ? 1 : in.channels());
             method = "difference";
-            sigma = d.sigma();
-            sigmaCi = d.sigmaCi95();
-            snr = d.snr();
-            snrCi = d.snrCi95();
+            figures = d.figures();
             warnings.addAll(d.warnings());
             if (!bg.isEmpty()) {
                 diag = BackgroundDiagnostics.diagnose(first, w, h, signal, bg,
@@ -107,12 +138,10 @@ public final class PhantomQa {
             }
         } else if (in.frames().length > 2) {
             RepeatedAcquisitions.Maps m = RepeatedAcquisitions.maps(in.frames(), w, h, null);
-            RepeatedSnrResult r = RepeatedAcquisitions.summarize(m, signal, false, in.channels() == null ? 1 : in.channels());
+            RepeatedSnrResult r = RepeatedAcquisitions.summarize(m, RepeatedAcquisitions.Frames.of(in.frames()), signal,
+                    in.channels() == null ? 1 : in.channels());
             method = "repeated";
-            sigma = r.sigma();
-            sigmaCi = r.sigmaCi95();
-            snr = r.snr();
-            snrCi = r.snrCi95();
+            figures = r.figures();
             signalMean = r.signalMean();
             warnings.addAll(r.warnings());
             if (!bg.isEmpty()) {
@@ -127,10 +156,7 @@ public final class PhantomQa {
             BackgroundSnrResult r = BackgroundSnr.analyze(first, w, h, signal, bg,
                     new BackgroundSnr.Options(in.channels(), SigmaEstimator.ML, in.phase(), in.storage()));
             method = "background";
-            sigma = r.sigma().sigma();
-            sigmaCi = r.sigma().ci95();
-            snr = r.snr();
-            snrCi = r.snrCi95();
+            figures = r.figures();
             verdict = r.verdict();
             diag = r.diagnosis();
             warnings.addAll(r.warnings());
@@ -165,7 +191,7 @@ public final class PhantomQa {
                 }
             }
         }
-        return new Result(pl, phantom, method, signalMean, sigma, sigmaCi, snr, snrCi, verdict, win, piu, nu, ghosting,
-                sides, lim, piuOk, ghostOk, diag, bgValues, warnings);
+        return new Result(pl, phantom, method, signalMean, figures, verdict, win, piu, nu, ghosting, sides, lim, piuOk,
+                ghostOk, diag, bgValues, warnings);
     }
 }

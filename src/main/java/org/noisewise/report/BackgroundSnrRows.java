@@ -1,8 +1,9 @@
 package org.noisewise.report;
 
 import org.noisewise.diagnose.BackgroundDiagnostics;
+import org.noisewise.diagnose.BackgroundSnrResult;
 import org.noisewise.diagnose.ChannelCount;
-import org.noisewise.estimate.BackgroundSnrResult;
+import org.noisewise.estimate.CorrectedSnr;
 import org.noisewise.estimate.SigmaEstimate;
 import org.noisewise.estimate.SigmaEstimator;
 
@@ -24,27 +25,28 @@ public final class BackgroundSnrRows {
         SigmaEstimate s = r.sigma();
         String u = " [" + unit + "]";
         BackgroundDiagnostics.Diagnosis d = r.diagnosis();
+        CorrectedSnr f = r.figures();
         ResultRow row = new ResultRow()
                 .add("image", "Image", image)
                 .add("slice", "Slice", slice)
                 .add("method", "Method", METHOD)
-                .add("verdict", "Verdict", d.verdict().key())
-                .add("snr", "SNR", r.snr())
-                .add("snr_ci95[0]", "SNR 95% low", r.snrCi95().low())
-                .add("snr_ci95[1]", "SNR 95% high", r.snrCi95().high())
-                .add("signal_mean", "Signal mean" + u, r.signal().mean())
-                .add("signal_sd", "Signal SD" + u, r.signal().sd())
-                .add("sigma", "Sigma" + u, s.sigma())
-                .add("sigma_ci95[0]", "Sigma 95% low" + u, s.ci95().low())
-                .add("sigma_ci95[1]", "Sigma 95% high" + u, s.ci95().high())
-                .add("sigma_estimator", "Estimator", s.estimator().key());
+                .add("verdict", "Verdict", d.verdict().key());
+        Figures.snr(row, f, "SNR plain (S/sigma)");
+        Figures.amplitude(row, f, u);
+        row.add("signal_mean", "Signal mean (magnitude)" + u, r.signal().stats().mean())
+                .add("signal_sd", "Signal SD" + u, r.signal().stats().sd());
+        Figures.sigma(row, "Sigma", s.sigma(), s.ci95(), u);
+        row.add("sigma_estimator", "Estimator", s.estimator().key());
         addDiagnosis(row, d);
-        row.add("pixels.signal", "Signal pixels", r.signal().n())
+        row.add("pixels.signal", "Signal pixels", r.signal().stats().n())
                 .add("pixels.background", "Background pixels", r.background().n())
+                .add("signal_effective_pixels", "Effective signal pixels",
+                        r.signal().correlation().effectiveForMean(r.signal().stats().n()))
                 .add("background_mean", "Background mean" + u, r.background().mean())
                 .add("background_sd", "Background SD" + u, r.background().sd());
         for (SigmaEstimator e : SigmaEstimator.values()) {
-            row.add("estimators." + e.key(), "Sigma " + e.key() + u, r.estimates().get(e).sigma());
+            double v = r.estimates().get(e).sigma();
+            row.add("estimators." + e.key(), "Sigma " + e.key() + u, v > 0 ? v : null);
         }
         return row.add("warnings", "Warnings", r.warnings());
     }
@@ -57,10 +59,13 @@ public final class BackgroundSnrRows {
                 .add("channels_estimate.value", "Channels (estimated)", ce == null ? null : ce.channels())
                 .add("channels_estimate.ci95[0]", "Channels 95% low", ce == null ? null : ce.low())
                 .add("channels_estimate.ci95[1]", "Channels 95% high", ce == null ? null : ce.high())
-                .add("noise_correlation.x", "Noise correlation x", d.correlation().neighbourX())
-                .add("noise_correlation.y", "Noise correlation y", d.correlation().neighbourY())
-                .add("noise_correlation.x2", "Noise correlation x lag 2", d.correlation().noiseX(2, true))
-                .add("noise_correlation.y2", "Noise correlation y lag 2", d.correlation().noiseY(2, true))
+                .add("phase", "Phase encoding", d.phase().name().toLowerCase(java.util.Locale.ROOT))
+                .add("noise_correlation.x", "Noise correlation x", d.noise().noiseCorrelationX())
+                .add("noise_correlation.y", "Noise correlation y", d.noise().noiseCorrelationY())
+                .add("noise_correlation.x2", "Noise correlation x lag 2",
+                        Math.sqrt(Math.max(0.0, d.noise().squares().lag2X())))
+                .add("noise_correlation.y2", "Noise correlation y lag 2",
+                        Math.sqrt(Math.max(0.0, d.noise().squares().lag2Y())))
                 .add("effective_pixels", "Effective background pixels", d.effectivePixels());
     }
 }

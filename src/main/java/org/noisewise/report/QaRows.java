@@ -11,27 +11,25 @@ public final class QaRows {
 
     public static ResultRow row(String image, int slice, String unit, PhantomQa.Result r) {
         String u = " [" + unit + "]";
+        double[] sides = r.sideMeans();
         ResultRow row = new ResultRow()
                 .add("image", "Image", image)
                 .add("slice", "Slice", slice)
                 .add("method", "SNR method", r.method())
-                .add("verdict", "Verdict", r.verdict().key())
-                .add("snr", "SNR", r.snr())
-                .add("snr_ci95[0]", "SNR 95% low", r.snrCi95().low())
-                .add("snr_ci95[1]", "SNR 95% high", r.snrCi95().high())
-                .add("sigma", "Sigma" + u, r.sigma())
-                .add("sigma_ci95[0]", "Sigma 95% low" + u, r.sigmaCi95().low())
-                .add("sigma_ci95[1]", "Sigma 95% high" + u, r.sigmaCi95().high())
-                .add("signal_mean", "Signal mean" + u, r.signalMean())
+                .add("verdict", "Verdict", r.verdict().key());
+        Figures.snr(row, r.figures(), "SNR plain (magnitude)");
+        Figures.amplitude(row, r.figures(), u);
+        Figures.sigma(row, "Sigma (corrected)", r.sigma(), r.sigmaCi95(), u);
+        row.add("signal_mean", "Signal mean (magnitude)" + u, r.signalMean())
                 .add("uniformity_piu", "PIU [%]", r.piu())
                 .add("uniformity_high", "Uniformity high" + u, r.windows().high())
                 .add("uniformity_low", "Uniformity low" + u, r.windows().low())
                 .add("nema_nonuniformity_percent", "NEMA non-uniformity [%]", r.nemaNonUniformity())
                 .add("ghosting_percent", "Ghosting [%]", r.ghostingPercent())
-                .add("ghost_means.top", "Ghost top" + u, r.sideMeans()[0])
-                .add("ghost_means.bottom", "Ghost bottom" + u, r.sideMeans()[1])
-                .add("ghost_means.left", "Ghost left" + u, r.sideMeans()[2])
-                .add("ghost_means.right", "Ghost right" + u, r.sideMeans()[3])
+                .add("ghost_means.top", "Ghost top" + u, sides[0])
+                .add("ghost_means.bottom", "Ghost bottom" + u, sides[1])
+                .add("ghost_means.left", "Ghost left" + u, sides[2])
+                .add("ghost_means.right", "Ghost right" + u, sides[3])
                 .add("limits.piu_min", "PIU limit [%]", r.limits() == null ? null : r.limits().minimumPiu())
                 .add("limits.ghosting_max", "Ghosting limit [%]",
                         r.limits() == null ? null : r.limits().maximumGhostingPercent())

@@ -24,8 +24,8 @@ import java.util.zip.ZipOutputStream;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.noisewise.estimate.BackgroundSnr;
-import org.noisewise.estimate.BackgroundSnrResult;
+import org.noisewise.diagnose.BackgroundSnr;
+import org.noisewise.diagnose.BackgroundSnrResult;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.testing.TestImages;
@@ -78,7 +78,9 @@ class BackgroundCommandTest {
                 BackgroundSnr.Options.defaults());
         assertEquals(core.snr(), o.get("snr").getAsDouble(), 0.0);
         assertEquals(core.sigma().sigma(), o.get("sigma").getAsDouble(), 0.0);
-        assertEquals(core.signal().mean(), o.get("signal_mean").getAsDouble(), 0.0);
+        assertEquals(core.signal().stats().mean(), o.get("signal_mean").getAsDouble(), 0.0);
+        assertEquals(core.figures().amplitude(), o.get("signal_amplitude").getAsDouble(), 0.0);
+        assertEquals(core.figures().magnitudeSnr(), o.get("snr_magnitude").getAsDouble(), 0.0);
         assertEquals(core.estimates().get(SigmaEstimator.MEDIAN).sigma(),
                 o.getAsJsonObject("estimators").get("median").getAsDouble(), 0.0);
         assertEquals(core.sigma().ci95().low(), o.getAsJsonArray("sigma_ci95").get(0).getAsDouble(), 0.0);

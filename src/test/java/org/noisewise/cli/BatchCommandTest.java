@@ -19,7 +19,7 @@ import java.util.stream.Stream;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.noisewise.estimate.BackgroundSnr;
+import org.noisewise.diagnose.BackgroundSnr;
 import org.noisewise.report.BackgroundSnrRows;
 import org.noisewise.testing.TestImages;
 

@@ -81,11 +81,15 @@ class MethodCommandsCliTest {
         JsonObject o = JsonParser.parseString(r.out()).getAsJsonObject();
         assertEquals(12, o.get("repeats").getAsInt());
         assertEquals(4.0, o.get("sigma").getAsDouble(), 0.3);
-        assertTrue(o.getAsJsonObject("rician").has("signal"));
+        // the corrected figures are the headline; --rician is accepted and changes nothing
+        assertTrue(o.has("signal_amplitude") && o.has("snr_magnitude") && o.has("sigma_magnitude"));
+        CliRunner.Result plain = CliRunner.run("repeat", stack.toString(), "--signal", "38,38,20,20", "--json");
+        assertEquals(o.get("snr").getAsDouble(), JsonParser.parseString(plain.out()).getAsJsonObject().get("snr")
+                .getAsDouble(), 0.0);
         ImagePlus maps = IJ.openImage(map.toString());
         assertNotNull(maps);
         assertEquals(3, maps.getStackSize());
-        assertEquals("SNR", maps.getStack().getSliceLabel(3));
+        assertEquals("SNR map (mean/SD)", maps.getStack().getSliceLabel(3));
         assertInputError(CliRunner.run("repeat", stack.toString(), "--signal", "38,38,20,20", "--map", map.toString()),
                 "--force");
         assertEquals(0, CliRunner.run("repeat", stack.toString(), "--map", map.toString(), "--force").status());
@@ -116,10 +120,17 @@ class MethodCommandsCliTest {
         assertEquals(32, c.getBitDepth());
         assertInputError(CliRunner.run("correct", low.toString(), "--sigma", "4", "--out", out.toString()), "--force");
         assertInputError(CliRunner.run("correct", low.toString(), "--sigma", "0", "--out", dir.resolve("x.tif").toString()),
+                "give --sigma s, or --background regions");
+        assertInputError(CliRunner.run("correct", low.toString(), "--sigma", "-1", "--out", dir.resolve("x.tif").toString()),
                 "--sigma must be a positive");
         assertInputError(CliRunner.run("correct", low.toString(), "--sigma", "2", "--method", "magic", "--out",
                 dir.resolve("y.tif").toString()), "unknown correction method");
-        assertEquals(2, CliRunner.run("correct", low.toString(), "--out", dir.resolve("z.tif").toString()).status());
+        assertEquals(2, CliRunner.run("correct", low.toString(), "--sigma", "4").status(), "--out is required");
+        // sigma measured from background regions, as the ImageJ dialog's sigma = 0 does
+        CliRunner.Result measured = CliRunner.run("correct", low.toString(), "--background", "1,1,14,14", "--out",
+                dir.resolve("z.tif").toString());
+        assertEquals(0, measured.status(), measured.err());
+        assertTrue(measured.err().contains("sigma measured from the background regions"), measured.err());
         try (var files = Files.list(dir)) {
             assertTrue(files.noneMatch(p -> p.getFileName().toString().endsWith(".part")), "temporary file left behind");
         } catch (java.io.IOException e) {

@@ -20,13 +20,14 @@ import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
-import org.noisewise.estimate.BackgroundSnr;
-import org.noisewise.estimate.BackgroundSnrResult;
+import org.noisewise.diagnose.BackgroundSnr;
+import org.noisewise.diagnose.BackgroundSnrResult;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.RoiRegions;
+import org.noisewise.measure.BackgroundMeasure;
 import org.noisewise.testing.ImageJHarness;
 import org.noisewise.testing.TestImages;
 
@@ -52,7 +53,7 @@ class BackgroundSnrCommandTest {
     @AfterEach
     void closeTables() {
         for (Frame f : WindowManager.getNonImageWindows()) {
-            if (f.getTitle().startsWith("SNR background")) {
+            if (f.getTitle().startsWith("SNR (Background Regions)")) {
                 f.dispose();
             }
         }
@@ -88,10 +89,11 @@ class BackgroundSnrCommandTest {
         BackgroundSnrResult core = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, 1), w, w, sig,
                 List.of(Region.rectangle("a", 1, 1, 14, 14, w, w), Region.rectangle("b", 80, 80, 14, 14, w, w)),
                 BackgroundSnr.Options.defaults());
-        assertEquals(core.snr(), rt.getValue("SNR", 0), 1e-9);
+        assertEquals(core.snr(), rt.getValue("SNR (corrected)", 0), 1e-9);
+        assertEquals(core.figures().magnitudeSnr(), rt.getValue("SNR plain (S/sigma)", 0), 1e-9);
         assertEquals(core.sigma().sigma(), rt.getValue("Sigma [a.u.]", 0), 1e-9);
         assertEquals(core.sigma().ci95().high(), rt.getValue("Sigma 95% high [a.u.]", 0), 1e-9);
-        assertEquals(core.signal().mean(), rt.getValue("Signal mean [a.u.]", 0), 1e-9);
+        assertEquals(core.signal().stats().mean(), rt.getValue("Signal mean (magnitude) [a.u.]", 0), 1e-9);
         assertEquals(392, (int) rt.getValue("Background pixels", 0));
         assertEquals("ml", rt.getStringValue("Estimator", 0));
         assertEquals(before, TestImages.checksum(imp), "the input image was modified");
@@ -106,11 +108,11 @@ class BackgroundSnrCommandTest {
         st.addSlice(TestImages.phantom("c", 120, 5, 8, 3).getProcessor());
         ImagePlus imp = new ImagePlus("eight channels", st);
         String before = TestImages.checksum(imp);
-        add(new Roi(38, 38, 20, 20), "centre");     // no role from its name: set by region_1
+        add(new Roi(38, 38, 20, 20), "centre");     // no role from its name: set by role_centre
         add(new Roi(1, 1, 14, 14), "bg1");
-        add(new Roi(80, 1, 14, 14), "corner");      // set to background by region_3
+        add(new Roi(80, 1, 14, 14), "corner");      // set to background by role_corner
         IJ.run(imp, CMD, "channels=auto estimator=Median-based slices=[All slices] roles=[Region names] "
-                + "phase=Unknown region_1=signal region_2=background region_3=background");
+                + "phase=Unknown role_centre=signal role_corner=background");
         ResultsTable rt = table(imp);
         assertEquals(3, rt.size());
         for (int row = 0; row < 3; row++) {
@@ -129,7 +131,7 @@ class BackgroundSnrCommandTest {
         ImagePlus imp = TestImages.phantom("selection.tif", 100, 4, 1, 9);
         imp.setRoi(new Roi(38, 38, 20, 20));
         add(new Roi(1, 1, 14, 14), "whatever");
-        IJ.run(imp, CMD, "channels=1 estimator=SD-based slices=[Current slice] roles=[Selection is signal] region_1=ignore");
+        IJ.run(imp, CMD, "channels=1 estimator=SD-based slices=[Current slice] roles=[Selection is signal]");
         ResultsTable rt = table(imp);
         assertEquals(400, (int) rt.getValue("Signal pixels", 0));
         assertEquals(196, (int) rt.getValue("Background pixels", 0));
@@ -155,7 +157,7 @@ class BackgroundSnrCommandTest {
         ImagePlus imp = TestImages.phantom("edge.tif", 100, 4, 1, 9);
         InputException e = assertThrows(InputException.class, () -> BackgroundSnrCommand.process(imp,
                 new Roi(38, 38, 20, 20), List.of(new Roi(90, 90, 20, 20)),
-                new BackgroundSnr.Options(1, SigmaEstimator.ML), false));
+                new BackgroundMeasure.Options(1, SigmaEstimator.ML, null), false, null));
         assertTrue(e.getMessage().contains("outside"), e.getMessage());
     }
 

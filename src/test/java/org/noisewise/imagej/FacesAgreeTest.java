@@ -62,7 +62,7 @@ class FacesAgreeTest {
                 new PrintWriter(new StringWriter()));
         assertEquals(0, status);
         JsonObject o = JsonParser.parseString(out.toString()).getAsJsonObject();
-        assertEquals(o.get("snr").getAsDouble(), rt.getValue("SNR", 0), 0.0);
+        assertEquals(o.get("snr").getAsDouble(), rt.getValue("SNR (corrected)", 0), 0.0);
         assertEquals(o.get("sigma").getAsDouble(), rt.getValue("Sigma [a.u.]", 0), 0.0);
         assertEquals(o.getAsJsonArray("snr_ci95").get(1).getAsDouble(), rt.getValue("SNR 95% high", 0), 0.0);
         assertEquals(o.get("verdict").getAsString(), rt.getStringValue("Verdict", 0));

@@ -90,8 +90,9 @@ class MethodCommandsTest {
         assertNotNull(rt);
         DifferenceSnrResult core = DifferenceSnr.analyze(ImagePlanes.calibratedPixels(a, 1),
                 ImagePlanes.calibratedPixels(b, 1), 96, Region.rectangle("s", 38, 38, 20, 20, 96, 96), 1);
-        assertEquals(core.sigma(), rt.getValue("Sigma [a.u.]", 0), 1e-9);
-        assertEquals(core.snr(), rt.getValue("SNR", 0), 1e-9);
+        assertEquals(core.sigma(), rt.getValue("Sigma (corrected) [a.u.]", 0), 1e-9);
+        assertEquals(core.snr(), rt.getValue("SNR (corrected)", 0), 1e-9);
+        assertEquals(core.magnitudeSnr(), rt.getValue("SNR plain (NEMA, sqrt2 S/SD diff)", 0), 1e-9);
         assertEquals("acq2", rt.getStringValue("Image 2", 0));
         assertEquals(ca, TestImages.checksum(a));
         assertEquals(cb, TestImages.checksum(b));
@@ -105,7 +106,7 @@ class MethodCommandsTest {
         IJ.run(st, "SNR (Two Acquisitions)...", "source=[Two frames of one stack] first=[pair stack] second=[pair stack] "
                 + "frame_a=1 frame_b=3 channels=1 slices=[Current slice]");
         ResultsTable rt = ResultsTable.getResultsTable(DifferenceSnrCommand.tableTitle(st));
-        assertEquals(4.0, rt.getValue("Sigma [a.u.]", 0), 0.5);
+        assertEquals(4.0, rt.getValue("Sigma (corrected) [a.u.]", 0), 0.5);
         assertEquals("pair stack frame 3", rt.getStringValue("Image 2", 0));
     }
 
@@ -133,14 +134,16 @@ class MethodCommandsTest {
         add(new Roi(38, 38, 20, 20), "signal");
         int imagesBefore = WindowManager.getImageCount();
         IJ.run(st, "SNR Map (Repeated Acquisitions)...", "channels=1 slices=[Current slice] maps rician");
-        assertEquals(imagesBefore + 3, WindowManager.getImageCount());
-        ImagePlus snrMap = WindowManager.getImage("repeats SNR map");
-        assertNotNull(snrMap);
-        assertEquals(32, snrMap.getBitDepth());
+        assertEquals(imagesBefore + 1, WindowManager.getImageCount());
+        ImagePlus maps = WindowManager.getImage("repeats repeat maps");
+        assertNotNull(maps);
+        assertEquals(32, maps.getBitDepth());
+        assertEquals(3, maps.getStackSize());
+        assertEquals("SNR map (mean/SD)", maps.getStack().getSliceLabel(3));
         ResultsTable rt = ResultsTable.getResultsTable(RepeatedSnrCommand.tableTitle(st));
         assertEquals(16, (int) rt.getValue("Repeats", 0));
-        assertEquals(4.0, rt.getValue("Sigma [a.u.]", 0), 0.2);
-        assertEquals(80.0, rt.getValue("Corrected signal [a.u.]", 0), 2.0);
+        assertEquals(4.0, rt.getValue("Sigma (corrected) [a.u.]", 0), 0.2);
+        assertEquals(80.0, rt.getValue("Signal amplitude (corrected) [a.u.]", 0), 2.0);
         assertEquals(before, TestImages.checksum(st));
     }
 
@@ -148,7 +151,7 @@ class MethodCommandsTest {
     void repeatedNeedsTwoFrames() {
         ImagePlus one = TestImages.phantom("one", 80, 4, 1, 3);
         InputException e = assertThrows(InputException.class,
-                () -> RepeatedSnrCommand.process(one, List.of(), 1, false, false));
+                () -> RepeatedSnrCommand.process(one, List.of(), 1, false));
         assertTrue(e.getMessage().contains("single frame"), e.getMessage());
     }
 

@@ -1,4 +1,4 @@
-package org.noisewise.estimate;
+package org.noisewise.diagnose;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
@@ -7,6 +7,11 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.util.List;
 import java.util.stream.IntStream;
 import org.junit.jupiter.api.Test;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Region;
+import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.estimate.Warning;
+import org.noisewise.math.MeanInverse;
 import org.noisewise.sample.Phantoms;
 
 class BackgroundSnrTest {
@@ -33,10 +38,14 @@ class BackgroundSnrTest {
         assertEquals(4.0, r.sigma().sigma(), 0.3);
         assertTrue(r.sigma().ci95().contains(4.0));
         assertEquals(25.0, r.snr(), 1.5);
-        assertEquals(400, r.signal().n());
+        assertEquals(400, r.signal().stats().n());
         assertEquals(392, r.background().n());
         assertTrue(r.warnings().isEmpty(), r.warnings().toString());
-        assertEquals(r.signal().mean() / r.sigma().sigma(), r.snr(), 1e-12);
+        // the plain ratio is the signal mean over sigma; the SNR inverts the Rice mean of that ratio (closed form)
+        double plain = r.signal().stats().mean() / r.sigma().sigma();
+        assertEquals(plain, r.figures().magnitudeSnr(), 1e-12);
+        assertEquals(MeanInverse.of(1).theta(plain), r.snr(), 1e-12);
+        assertEquals(r.snr() * r.sigma().sigma(), r.figures().amplitude(), 1e-9);
     }
 
     @Test
@@ -61,6 +70,7 @@ class BackgroundSnrTest {
         assertTrue(codes.contains("regions_overlap"), codes.toString());
         // a masked background is invalid: no SNR, so no statement about its bias either
         assertTrue(codes.contains("no_snr") && !codes.contains("low_snr"), codes.toString());
+        assertEquals(null, r.figures());
         assertTrue(Double.isNaN(r.snr()));
         BackgroundSnrResult low = BackgroundSnr.analyze(phantom(6, 4, 1, 5), W, W, signal(), background(),
                 BackgroundSnr.Options.defaults());

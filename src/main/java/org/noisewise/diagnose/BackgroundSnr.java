@@ -1,4 +1,4 @@
-package org.noisewise.estimate;
+package org.noisewise.diagnose;
 
 import java.util.ArrayList;
 import java.util.HashSet;
@@ -6,22 +6,30 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
-import org.noisewise.diagnose.BackgroundCheck;
-import org.noisewise.diagnose.BackgroundDiagnostics;
-import org.noisewise.diagnose.PhaseDirection;
-import org.noisewise.diagnose.Verdict;
+import org.noisewise.estimate.BackgroundNoise;
+import org.noisewise.estimate.CorrectedSnr;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Interval;
+import org.noisewise.estimate.Region;
+import org.noisewise.estimate.SampleStats;
+import org.noisewise.estimate.SigmaEstimate;
+import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.estimate.SpatialCorrelation;
+import org.noisewise.estimate.Warning;
 
 /**
- * The single-image (background) SNR method: {@code SNR = S / sigma}, with {@code S} the signal
- * region mean and {@code sigma} estimated from background (air) regions under the central chi(2L)
- * model. Equivalent to NEMA MS 1's single-image method {@code 0.655 S / SD_bg} for L = 1 with the
- * SD estimator, and {@code 1.253 S / mean_bg} with the mean estimator.
+ * The single-image (background) SNR method, judged by the background diagnostics: sigma from
+ * background (air) regions under the central chi(2L) model, the signal amplitude from the signal
+ * region's mean by inverting the Rice / noncentral-chi mean ({@link CorrectedSnr#knownSigma}), and
+ * {@code SNR = A / sigma}. The plain ratio {@code S / sigma} is NEMA MS 1's single-image method
+ * ({@code 0.655 S / SD_bg} for L = 1 with the SD estimator, {@code 1.253 S / mean_bg} with the mean
+ * estimator) and is reported beside it.
  *
  * <p>Only valid when the background holds unprocessed magnitude noise: not masked or zero-filled,
  * free of ghosts, from a sum-of-squares combination of equal, uncorrelated channels, without
  * parallel imaging or filtering (Dietrich et al. 2007, JMRI 26:375). Every measurement is judged by
- * {@link BackgroundDiagnostics}; intervals use the effective pixel count of correlated noise, and an
- * {@code invalid} verdict withholds the SNR.
+ * {@link BackgroundDiagnostics}; intervals use each estimator's effective pixel count, the signal
+ * mean's standard error the signal region's own, and an {@code invalid} verdict withholds the SNR.
  */
 public final class BackgroundSnr {
 
@@ -38,10 +46,11 @@ public final class BackgroundSnr {
     /**
      * Options of the method.
      *
-     * @param channels  stated channel count L, or {@code null} to estimate it ("auto")
-     * @param estimator the estimator reported as sigma
-     * @param phase     phase-encoding direction, for the ghosting check
-     * @param storage   how values were stored, for the quantisation and clipping checks
+     * @param channels   stated channel count L, or {@code null} to estimate it ("auto")
+     * @param estimator  the estimator reported as sigma
+     * @param phase      phase-encoding direction, for the ghosting check
+     * @param storage    how values were stored, for the quantisation and clipping checks
+     * @param difference a two-acquisition sigma to compare the background with, or null
      */
     public record Options(Integer channels, SigmaEstimator estimator, PhaseDirection phase,
                           BackgroundCheck.Storage storage, DifferenceSigma difference) {
@@ -73,6 +82,30 @@ public final class BackgroundSnr {
         }
     }
 
+    /** The signal region's statistics and the correlation of its values (for the mean's standard error). */
+    public record Signal(SampleStats stats, SpatialCorrelation.Result correlation) {
+        /** Standard error of the region mean with the effective pixel count; NaN for one pixel. */
+        public double standardError() {
+            return stats.n() > 1 ? stats.sd() / Math.sqrt(correlation.effectiveForMean(stats.n())) : Double.NaN;
+        }
+
+        public static Signal of(float[] pixels, int width, Region signal) throws InputException {
+            SampleStats s = SampleStats.of(signal.values(pixels));
+            SpatialCorrelation.Result c = s.n() > 1 ? SpatialCorrelation.ofValues(pixels, width, signal)
+                    : SpatialCorrelation.Result.white(s.n());
+            return new Signal(s, c);
+        }
+    }
+
+    /**
+     * The corrected figures from a signal region and one sigma estimate (no diagnostics): the part of
+     * the method the coverage tests check against the truth.
+     */
+    public static CorrectedSnr figures(Signal signal, SigmaEstimate sigma, int channels) {
+        return CorrectedSnr.knownSigma(signal.stats().mean(), signal.standardError(), sigma.sigma(), sigma.ci95(),
+                channels);
+    }
+
     /**
      * Measures one plane.
      *
@@ -94,16 +127,14 @@ public final class BackgroundSnr {
         if ((long) width * height != pixels.length) {
             throw new IllegalArgumentException("plane is " + pixels.length + " pixels, not " + width + "x" + height);
         }
-        double[] s = signal.values(pixels);
-        double[] bg = Region.pooledMagnitudes(pixels, background);
+        Signal sig = Signal.of(pixels, width, signal);
+        BackgroundNoise noise = BackgroundNoise.measure(pixels, width, background);
         List<Warning> warnings = new ArrayList<>();
         checkOverlap(signal, background, warnings);
-        SampleStats sStats = SampleStats.of(s);
-        SampleStats bStats = SampleStats.of(bg);
         BackgroundDiagnostics.Diagnosis diag = BackgroundDiagnostics.diagnose(pixels, width, height, signal, background,
-                new BackgroundDiagnostics.Options(options.channels(), options.phase(), options.storage()));
+                noise, new BackgroundDiagnostics.Options(options.channels(), options.phase(), options.storage()));
         int channels = diag.channels();
-        Map<SigmaEstimator, SigmaEstimate> est = BackgroundSigma.estimate(bg, channels, diag.effectivePixels());
+        Map<SigmaEstimator, SigmaEstimate> est = diag.check().estimates();
         SigmaEstimate chosen = est.get(options.estimator());
         if (options.difference() != null && chosen.sigma() > 0) {
             Warning w = BackgroundDiagnostics.compareWithDifference(chosen.sigma(), chosen.ci95(),
@@ -113,26 +144,21 @@ public final class BackgroundSnr {
             }
         }
         warnings.addAll(diag.reasons());
-        if (bg.length < MIN_BACKGROUND_PIXELS) {
+        if (noise.size() < MIN_BACKGROUND_PIXELS) {
             warnings.add(new Warning("few_background_pixels", String.format(Locale.ROOT,
                     "only %d background pixels (fewer than %d): sigma is imprecise; draw larger "
-                            + "background regions", bg.length, MIN_BACKGROUND_PIXELS)));
+                            + "background regions", noise.size(), MIN_BACKGROUND_PIXELS)));
         }
-        double snr = Double.NaN;
-        Interval snrCi = new Interval(Double.NaN, Double.NaN);
+        CorrectedSnr figures = null;
         if (diag.verdict() == Verdict.INVALID || !(chosen.sigma() > 0)) {
             warnings.add(new Warning("no_snr", "no SNR is reported: the background cannot give a trustworthy sigma "
                     + "here. Acquire the scan twice and use the difference method, or repeat it and use the "
                     + "repeated-acquisition method."));
         } else {
-            snr = sStats.mean() / chosen.sigma();
-            snrCi = SnrMath.snrInterval(sStats.mean(), sStats.standardError(), chosen.sigma(), chosen.ci95());
-            Warning low = SnrMath.lowSnrWarning(snr, channels);
-            if (low != null) {
-                warnings.add(low);
-            }
+            figures = figures(sig, chosen, channels);
+            warnings.addAll(figures.warnings());
         }
-        return new BackgroundSnrResult(channels, options.estimator(), est, sStats, bStats, snr, snrCi, diag, warnings);
+        return new BackgroundSnrResult(channels, options.estimator(), est, sig, noise.stats(), figures, diag, warnings);
     }
 
     private static void checkOverlap(Region signal, List<Region> background, List<Warning> warnings) {

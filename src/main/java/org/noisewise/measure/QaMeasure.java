@@ -1,4 +1,4 @@
-package org.noisewise.io;
+package org.noisewise.measure;
 
 import ij.ImagePlus;
 import ij.measure.Calibration;
@@ -13,7 +13,20 @@ import java.util.Locale;
 import java.util.Map;
 import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.InputException;
+import org.noisewise.io.BackgroundValues;
+import org.noisewise.io.HistogramPlot;
+import org.noisewise.io.ImageMetadata;
+import org.noisewise.io.ImagePlanes;
+import org.noisewise.io.ImageWriter;
+import org.noisewise.io.PhantomLocator;
+import org.noisewise.io.QaImages;
+import org.noisewise.io.QaLogFile;
+import org.noisewise.io.StackPlanes;
+import org.noisewise.io.RoiRegions;
 import org.noisewise.phantom.ActionLimits;
+import org.noisewise.phantom.Phantom;
+import org.noisewise.phantom.PhantomFinder;
+import org.noisewise.phantom.PlacedRegion;
 import org.noisewise.phantom.PhantomQa;
 import org.noisewise.phantom.QaLog;
 import org.noisewise.phantom.QaRegions;
@@ -27,14 +40,14 @@ import org.noisewise.report.ResultRow;
  * stack, or one slice), finds the threshold, reads calibration and DICOM facts, measures, appends to
  * the QA log with baseline and limit flags, and writes the HTML report.
  */
-public final class QaRunner {
+public final class QaMeasure {
 
     /** The cautions printed in every report. */
     public static final String CAUTION = "This is an image-quality QA measurement for trending and research. It is not "
             + "an acceptance test by itself and not a diagnostic device. Whether the scanner is fit for clinical use is "
             + "decided by the site's qualified medical physicist under local regulations and procedures.";
 
-    private QaRunner() {
+    private QaMeasure() {
     }
 
     /**
@@ -117,8 +130,12 @@ public final class QaRunner {
             }
             limits = ActionLimits.largePhantom(field);
         }
-        PhantomQa.Result r = PhantomQa.run(new PhantomQa.Input(frames, w, h, PhantomLocator.threshold(frames[0]),
-                o.fraction(), phase, pw, ph, o.channels(), BackgroundValues.storage(first), limits, placement));
+        if (placement == null) {
+            Phantom phantom = PhantomFinder.find(frames[0], w, h, PhantomLocator.threshold(frames[0]));
+            placement = rasterize(QaRegions.place(phantom, w, h, o.fraction(), phase, pw, ph), w, h);
+        }
+        PhantomQa.Result r = PhantomQa.run(new PhantomQa.Input(frames, w, h, Double.NaN, o.fraction(), phase, pw, ph,
+                o.channels(), BackgroundValues.storage(first), limits, placement));
         String unit = ImagePlanes.valueUnit(first);
         String title = source != null ? source.getFileName().toString() : first.getTitle();
         ResultRow row = QaRows.row(title, o.slice(), unit, r);
@@ -170,6 +187,28 @@ public final class QaRunner {
             }
         }
         return out;
+    }
+
+    /**
+     * The placement with every region's pixels taken as ImageJ rasterises its ROI, so regions placed
+     * automatically and the same regions read back from the ROI Manager hold the same pixels.
+     */
+    public static QaRegions.Placement rasterize(QaRegions.Placement p, int w, int h) throws InputException {
+        List<PlacedRegion> bg = new ArrayList<>();
+        for (PlacedRegion b : p.background()) {
+            bg.add(rasterize(b, w, h));
+        }
+        return new QaRegions.Placement(rasterize(p.signal(), w, h), bg, rasterize(p.top(), w, h),
+                rasterize(p.bottom(), w, h), rasterize(p.left(), w, h), rasterize(p.right(), w, h), p.windowSide(),
+                p.warnings());
+    }
+
+    private static PlacedRegion rasterize(PlacedRegion p, int w, int h) throws InputException {
+        if (p == null) {
+            return null;
+        }
+        return new PlacedRegion(p.name(), p.kind(), p.x(), p.y(), p.w(), p.h(),
+                RoiRegions.toRegion(QaImages.roi(p), p.name(), w, h));
     }
 
     /** Slice {@code z} of an image: the first time frame of a hyperstack, else stack slice z. */

@@ -1,0 +1,188 @@
+package org.noisewise.imagej;
+
+import ij.IJ;
+import ij.ImagePlus;
+import ij.WindowManager;
+import ij.gui.GenericDialog;
+import ij.gui.Overlay;
+import ij.gui.Roi;
+import ij.gui.TextRoi;
+import ij.measure.ResultsTable;
+import java.awt.Color;
+import java.awt.Font;
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.charset.StandardCharsets;
+import java.util.List;
+import org.noisewise.estimate.InputException;
+import org.noisewise.report.ResultRow;
+
+/**
+ * What every ImageJ command does around its measurement: check the image before asking anything,
+ * show the rows in a named table (or append them to one table across images), draw the regions used
+ * as an overlay on the source image, write the values chosen for the user to the Log, and give the
+ * source image back the focus.
+ */
+final class Face {
+
+    /** Overlay colours by role. */
+    static final Color SIGNAL = Color.yellow;
+    static final Color BACKGROUND = Color.cyan;
+    /** Property that marks overlay elements drawn by Noisewise (only these are replaced on a rerun). */
+    static final String MARK = "noisewise.overlay";
+
+    private Face() {
+    }
+
+    /** The current image, or an error dialog in ImageJ's words and null. */
+    static ImagePlus currentImage(String title) {
+        ImagePlus imp = WindowManager.getCurrentImage();
+        if (imp == null) {
+            IJ.error(title, "There is no image open. Open an MR magnitude image (File > Open), then run "
+                    + "Plugins > Noisewise > " + title + " again.");
+        }
+        return imp;
+    }
+
+    /**
+     * Checks the image type before any dialog, in ImageJ's words: RGB and indexed-colour images are
+     * refused (an image with a colour lookup table is measured on its stored values, with a note).
+     */
+    static void checkImage(ImagePlus imp, String title) throws InputException {
+        int type = imp.getType();
+        if (type == ImagePlus.COLOR_RGB || type == ImagePlus.COLOR_256) {
+            throw new InputException("'" + imp.getTitle() + "' is a colour image (" + (type == ImagePlus.COLOR_RGB
+                    ? "RGB" : "8-bit indexed colour") + "). Noisewise measures grayscale magnitude images (8, 16 or 32 "
+                    + "bit): open the original data, not a screenshot or a colour export.");
+        }
+    }
+
+    /** A regions-needed check in ImageJ's words. */
+    static void requireRegions(RegionRoles regions, String what) throws InputException {
+        if (regions.isEmpty()) {
+            throw new InputException("There are no regions. " + what + " Add regions with the ROI Manager "
+                    + "(Analyze > Tools > ROI Manager, Add), naming them by role: 'signal' for the signal region, "
+                    + "'background', 'bg', 'air' or 'noise' for regions in air.");
+        }
+    }
+
+    /** The table checkbox: append rows to one table for every image (macro key {@code append}). */
+    static void addAppend(GenericDialog gd) {
+        gd.addCheckbox("Append rows to one table for all images", false);
+    }
+
+    /**
+     * Shows the rows: in a new table named for the command and image (a unique title), or appended to
+     * the command's one table when {@code append} is set.
+     */
+    static ResultsTable show(String command, ImagePlus imp, List<ResultRow> rows, boolean append) {
+        if (append) {
+            String title = "Noisewise " + command;
+            ResultsTable rt = ResultsTable.getResultsTable(title);
+            if (rt == null) {
+                rt = new ResultsTable();
+            }
+            Tables.append(rt, rows);
+            rt.show(title);
+            return rt;
+        }
+        ResultsTable rt = Tables.toResultsTable(rows);
+        rt.show(uniqueTitle(command + " - " + imp.getTitle()));
+        return rt;
+    }
+
+    /** Writes notes (values chosen for the user) to the Log window. */
+    static void log(String command, List<String> notes) {
+        for (String n : notes) {
+            IJ.log(command + ": " + n);
+        }
+    }
+
+    /**
+     * Draws the regions used as an overlay on {@code imp}, one colour per role, with a legend; the
+     * user's own overlay elements stay, earlier Noisewise elements are replaced. Pixels are not touched
+     * (Image > Overlay > Remove Overlay takes it away).
+     */
+    static void overlay(ImagePlus imp, List<Roi> signal, List<Roi> background) {
+        Overlay ov = imp.getOverlay() == null ? new Overlay() : imp.getOverlay().duplicate();
+        for (int i = ov.size() - 1; i >= 0; i--) {
+            if (ov.get(i).getProperty(MARK) != null) {
+                ov.remove(i);
+            }
+        }
+        for (Roi r : signal) {
+            ov.add(marked(r, SIGNAL));
+        }
+        for (Roi r : background) {
+            ov.add(marked(r, BACKGROUND));
+        }
+        if (!signal.isEmpty() || !background.isEmpty()) {
+            Font font = new Font("SansSerif", Font.PLAIN, Math.max(9, imp.getWidth() / 40));
+            TextRoi a = new TextRoi(2, 2, "signal", font);
+            a.setStrokeColor(SIGNAL);
+            a.setProperty(MARK, "legend");
+            ov.add(a);
+            TextRoi b = new TextRoi(2, 4 + font.getSize(), "background", font);
+            b.setStrokeColor(BACKGROUND);
+            b.setProperty(MARK, "legend");
+            ov.add(b);
+        }
+        imp.setOverlay(ov);
+    }
+
+    private static Roi marked(Roi r, Color c) {
+        Roi copy = (Roi) r.clone();
+        copy.setStrokeColor(c);
+        copy.setProperty(MARK, "region");
+        return copy;
+    }
+
+    /** Gives {@code imp} the focus again (after tables, plots and new images were shown). */
+    static void reactivate(ImagePlus imp) {
+        if (imp.getWindow() != null) {
+            WindowManager.setCurrentWindow(imp.getWindow());
+            imp.getWindow().toFront();
+        } else {
+            WindowManager.setTempCurrentImage(imp);
+        }
+    }
+
+    /** Shows a new image under a unique title. */
+    static void showNew(ImagePlus out) {
+        out.setTitle(uniqueTitle(out.getTitle()));
+        out.show();
+    }
+
+    /** {@code title}, or {@code title (2)}, {@code (3)} ... when a window already has it. */
+    static String uniqueTitle(String title) {
+        String t = title;
+        for (int k = 2; taken(t); k++) {
+            t = title + " (" + k + ")";
+        }
+        return t;
+    }
+
+    private static boolean taken(String title) {
+        if (WindowManager.getImage(title) != null) {
+            return true;
+        }
+        for (java.awt.Frame f : WindowManager.getNonImageWindows()) {
+            if (title.equals(f.getTitle())) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /** The command's help page (HTML from the plugin jar), readable in full in a scrolling window. */
+    static String help(String page) {
+        try (InputStream in = Face.class.getResourceAsStream("/help/" + page + ".html")) {
+            if (in == null) {
+                return "<html>See the Noisewise README, section '" + page + "'.</html>";
+            }
+            return new String(in.readAllBytes(), StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            return "<html>See the Noisewise README, section '" + page + "'.</html>";
+        }
+    }
+}

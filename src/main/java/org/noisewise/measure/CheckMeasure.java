@@ -1,0 +1,65 @@
+package org.noisewise.measure;
+
+import ij.ImagePlus;
+import ij.gui.Plot;
+import java.util.ArrayList;
+import java.util.List;
+import org.noisewise.diagnose.BackgroundDiagnostics;
+import org.noisewise.diagnose.PhaseDirection;
+import org.noisewise.estimate.BackgroundNoise;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Region;
+import org.noisewise.io.BackgroundValues;
+import org.noisewise.io.HistogramPlot;
+import org.noisewise.io.ImageMetadata;
+import org.noisewise.io.ImagePlanes;
+import org.noisewise.report.MethodRows;
+import org.noisewise.report.ResultRow;
+
+/**
+ * The background noise check: the diagnostics of the background regions per plane, each with its
+ * histogram plot (fitted Rayleigh / chi(2L) and a Gaussian). A signal region, when given, tells which
+ * background regions lie beside the object and which above or below it (for the ghosting check).
+ */
+public final class CheckMeasure {
+
+    private CheckMeasure() {
+    }
+
+    /** @param phase phase-encoding direction, or {@code null} to read DICOM 0018,1312 */
+    public record Options(Integer channels, PhaseDirection phase) {
+    }
+
+    public static Measurement run(ImagePlus imp, String title, Roles roles, Options o, int[] planes,
+                                  Progress progress) throws InputException {
+        ImagePlanes.requireGrayscale(imp);
+        List<Region> background = roles.backgrounds();
+        Region signal = roles.signal().isEmpty() ? null : roles.signal().get(0);
+        List<String> notes = Measurement.imageNotes(imp);
+        PhaseDirection phase = o.phase();
+        if (phase == null) {
+            phase = ImageMetadata.phaseDirection(imp);
+            if (phase != PhaseDirection.UNKNOWN) {
+                notes.add("phase-encoding direction from DICOM 0018,1312: " + phase.name());
+            }
+        }
+        BackgroundDiagnostics.Options options = new BackgroundDiagnostics.Options(o.channels(), phase,
+                BackgroundValues.storage(imp));
+        String unit = ImagePlanes.valueUnit(imp);
+        List<ResultRow> rows = new ArrayList<>();
+        List<Plot> plots = new ArrayList<>();
+        for (int k = 0; k < planes.length; k++) {
+            int n = planes[k];
+            progress.report((double) k / planes.length, "Background check: slice " + n);
+            float[] px = ImagePlanes.calibratedPixels(imp, n);
+            BackgroundNoise noise = BackgroundNoise.measure(px, imp.getWidth(), background);
+            BackgroundDiagnostics.Diagnosis d = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(),
+                    signal, background, noise, options);
+            rows.add(MethodRows.check(title, n, unit, d));
+            plots.add(HistogramPlot.build("Background histogram - " + title + (planes.length > 1 ? " slice " + n : ""),
+                    noise.values(), d, unit));
+        }
+        progress.report(1.0, "");
+        return new Measurement(rows, List.of(), plots, notes);
+    }
+}

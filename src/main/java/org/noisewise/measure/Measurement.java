@@ -1,0 +1,35 @@
+package org.noisewise.measure;
+
+import ij.ImagePlus;
+import ij.gui.Plot;
+import java.util.ArrayList;
+import java.util.List;
+import org.noisewise.io.ImagePlanes;
+import org.noisewise.report.ResultRow;
+
+/**
+ * What a measurement produced: result rows (one per plane and region), new images (maps, corrected
+ * copies; never the input), plots, and notes on every value chosen for the user (a channel count
+ * estimated, a phase direction read from DICOM, a sigma measured), which the faces show.
+ */
+public record Measurement(List<ResultRow> rows, List<ImagePlus> images, List<Plot> plots, List<String> notes) {
+
+    public Measurement {
+        rows = List.copyOf(rows);
+        images = List.copyOf(images);
+        plots = List.copyOf(plots);
+        notes = List.copyOf(notes);
+    }
+
+    /** The notes every measurement starts with: a colour lookup table on an input. */
+    static List<String> imageNotes(ImagePlus... images) {
+        List<String> notes = new ArrayList<>();
+        for (ImagePlus imp : images) {
+            String n = imp == null ? null : ImagePlanes.lookupTableNote(imp);
+            if (n != null) {
+                notes.add(n);
+            }
+        }
+        return notes;
+    }
+}

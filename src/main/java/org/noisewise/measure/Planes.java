@@ -1,0 +1,46 @@
+package org.noisewise.measure;
+
+import ij.ImagePlus;
+import java.util.stream.IntStream;
+import org.noisewise.estimate.InputException;
+import org.noisewise.io.StackPlanes;
+
+/**
+ * Which planes a measurement covers. Single-plane methods (background, check, correction) count stack
+ * planes 1..N; methods over repeats (difference of two frames, repeated acquisitions, stability) count
+ * z slices of a hyperstack (1 for a plain stack of repeats).
+ */
+public final class Planes {
+
+    private Planes() {
+    }
+
+    /** Every stack plane. */
+    public static int[] all(ImagePlus imp) {
+        return IntStream.rangeClosed(1, imp.getStackSize()).toArray();
+    }
+
+    /** Stack plane {@code n} (1-based), checked. */
+    public static int[] one(ImagePlus imp, int n) throws InputException {
+        if (n < 1 || n > imp.getStackSize()) {
+            throw new InputException("slice " + n + " does not exist: '" + imp.getTitle() + "' has "
+                    + imp.getStackSize() + " slice(s), numbered from 1");
+        }
+        return new int[] {n};
+    }
+
+    /** Every z slice (time frames are repeats). */
+    public static int[] allZ(ImagePlus imp) {
+        return IntStream.rangeClosed(1, StackPlanes.zCount(imp)).toArray();
+    }
+
+    /** z slice {@code z} (1-based), checked. */
+    public static int[] oneZ(ImagePlus imp, int z) throws InputException {
+        int zs = StackPlanes.zCount(imp);
+        if (z < 1 || z > zs) {
+            throw new InputException("z slice " + z + " does not exist: '" + imp.getTitle() + "' has " + zs
+                    + " z slice(s), numbered from 1");
+        }
+        return new int[] {z};
+    }
+}

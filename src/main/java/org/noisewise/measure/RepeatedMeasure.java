@@ -1,0 +1,60 @@
+package org.noisewise.measure;
+
+import ij.ImagePlus;
+import java.util.ArrayList;
+import java.util.List;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Region;
+import org.noisewise.estimate.RepeatedAcquisitions;
+import org.noisewise.io.ImagePlanes;
+import org.noisewise.io.RepeatedMaps;
+import org.noisewise.io.ResultImages;
+import org.noisewise.io.StackPlanes;
+import org.noisewise.report.MethodRows;
+import org.noisewise.report.ResultRow;
+
+/**
+ * The repeated-acquisition method: per z slice, the temporal mean, SD and SNR maps (one 3-slice
+ * image each, when asked for) and a corrected region summary per signal region.
+ */
+public final class RepeatedMeasure {
+
+    private RepeatedMeasure() {
+    }
+
+    /**
+     * @param zs   1-based z slices
+     * @param maps return the map images
+     */
+    public static Measurement run(ImagePlus imp, String title, Roles roles, int channels, int[] zs, boolean maps,
+                                  Progress progress) throws InputException {
+        ImagePlanes.requireGrayscale(imp);
+        int k = StackPlanes.repeatCount(imp);
+        if (k < 2) {
+            throw new InputException("'" + title + "' holds a single frame: the repeated-acquisition method needs a "
+                    + "stack of at least 2 repeats of the same slice");
+        }
+        if (roles.signal().isEmpty() && !maps) {
+            throw new InputException("nothing to do: give a signal region for the summary, or ask for the maps");
+        }
+        String unit = ImagePlanes.valueUnit(imp);
+        int zCount = StackPlanes.zCount(imp);
+        List<ImagePlus> images = new ArrayList<>();
+        List<ResultRow> rows = new ArrayList<>();
+        for (int i = 0; i < zs.length; i++) {
+            int z = zs[i];
+            Progress part = progress.part((double) i / zs.length, (i + 1.0) / zs.length);
+            RepeatedAcquisitions.Maps m = RepeatedMaps.compute(imp, z,
+                    f -> part.report(f, "Repeated acquisitions: z " + z + " of " + zCount));
+            if (maps) {
+                images.add(ResultImages.mapStack(title + " repeat maps" + (zCount > 1 ? " z" + z : ""), m, imp, unit));
+            }
+            for (Region reg : roles.signal()) {
+                rows.add(MethodRows.repeated(title, z, unit, RepeatedAcquisitions.summarize(m,
+                        RepeatedMaps.frames(imp, z), reg, channels)).add("region", "Region", reg.name()));
+            }
+        }
+        progress.report(1.0, "");
+        return new Measurement(rows, images, List.of(), Measurement.imageNotes(imp));
+    }
+}

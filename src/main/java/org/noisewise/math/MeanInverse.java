@@ -17,8 +17,8 @@ import java.util.concurrent.ConcurrentHashMap;
  * milliseconds) and shared.
  *
  * <p>Whole images go through {@link #apply}, a single-precision kernel the JIT vectorises: with
- * {@code t = x - beta_L} (the constant split in two floats so that {@code t} keeps full relative
- * precision just above the floor), {@code theta^2 = R(u) t (x + beta_L)} where
+ * {@code t = x - beta_L} (the floor subtracted in the image's units, the constant split in two floats,
+ * so that {@code t} keeps full relative precision just above the floor), {@code theta^2 = R(u) t (x + beta_L)} where
  * {@code u = t / (t + c)} maps {@code [0, inf)} onto {@code [0, 1)} and {@code R} (from
  * {@code 2L / beta_L^2} at the floor to 1 at high SNR) is analytic; a degree-{@value #DEGREE}
  * polynomial in {@code 2u - 1}, interpolated at Chebyshev nodes from the exact inverse with the
@@ -206,7 +206,8 @@ public final class MeanInverse {
     /**
      * Writes {@code sigma * theta(in[i] / sigma)} to {@code out[i]} for {@code i} in {@code [from, to)}:
      * the per-pixel mean inversion of a magnitude image with noise SD {@code sigma}. Values at or below
-     * {@code beta_L sigma} (negative ones included) give 0; NaN and infinite values give NaN. Relative error at most
+     * {@code beta_L sigma} (negative ones included) give 0; NaN and infinite values give NaN (as do values
+     * beyond about {@code 1e19 sigma}, where {@code theta^2} leaves the float range). Relative error at most
      * {@value #KERNEL_TOLERANCE} for {@code theta >= 0.1} (checked at setup), otherwise the table's.
      */
     public void apply(float[] in, float[] out, int from, int to, double sigma) {
@@ -230,24 +231,29 @@ public final class MeanInverse {
     }
 
     private void run(float[] k, float c, float[] in, float[] out, int from, int to, float scale, float sigma) {
-        float hi = (float) floor;
-        float lo = (float) (floor - hi);
+        // the floor in the image's units, split in two floats: near the floor in - hi is exact (Sterbenz),
+        // so t = x - beta keeps full relative precision however close to the floor the pixel is
+        double floorUnits = floor * sigma;
+        float hi = (float) floorUnits;
+        float lo = (float) (floorUnits - hi);
+        float twoFloor = (float) (2 * floor);
         for (int s = from; s < to; s += CHUNK) {
             pass(in, out, s, Math.min(to, s + CHUNK), k[0], k[1], k[2], k[3], k[4], k[5], k[6], k[7], k[8], k[9],
-                    k[10], k[11], k[12], k[13], k[14], k[15], k[16], hi, lo, c, scale, sigma);
+                    k[10], k[11], k[12], k[13], k[14], k[15], k[16], hi, lo, twoFloor, c, scale, sigma);
         }
     }
 
     /**
      * Three short loops over one chunk, each small enough for the JIT to vectorise (a longer loop body
-     * is not unrolled, and a loop that is not unrolled is not vectorised).
+     * is not unrolled, and a loop that is not unrolled is not vectorised): {@code t}, then
+     * {@code theta^2 = R(t) t (t + 2 beta)}, then {@code sigma theta}.
      */
     private static void pass(float[] in, float[] out, int s, int e, float k0, float k1, float k2, float k3, float k4,
                              float k5, float k6, float k7, float k8, float k9, float k10, float k11, float k12,
-                             float k13, float k14, float k15, float k16, float hi, float lo, float c, float scale,
-                             float sigma) {
+                             float k13, float k14, float k15, float k16, float hi, float lo, float twoFloor, float c,
+                             float scale, float sigma) {
         for (int i = s; i < e; i++) {
-            out[i] = Math.max((in[i] * scale - hi) - lo, 0f);
+            out[i] = Math.max((in[i] - hi) - lo, 0f) * scale;
         }
         for (int i = s; i < e; i++) {
             float t = out[i];
@@ -268,10 +274,10 @@ public final class MeanInverse {
             h = Math.fma(h, y, k2);
             h = Math.fma(h, y, k1);
             h = Math.fma(h, y, k0);
-            out[i] = t * h;
+            out[i] = t * h * (t + twoFloor);
         }
         for (int i = s; i < e; i++) {
-            out[i] = sigma * (float) Math.sqrt(out[i]) * (float) Math.sqrt(Math.abs(in[i] * scale + hi));
+            out[i] = sigma * (float) Math.sqrt(out[i]);
         }
     }
 

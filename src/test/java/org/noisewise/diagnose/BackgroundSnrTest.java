@@ -126,4 +126,15 @@ class BackgroundSnrTest {
             return dx * dx + dy * dy <= 100;
         }));
     }
+
+    /** A one-pixel signal region has no interval, and a warning says why and what to do (no silent null). */
+    @Test
+    void onePixelSignalRegionSaysWhyThereIsNoInterval() throws InputException {
+        BackgroundSnrResult r = BackgroundSnr.analyze(phantom(100, 4, 1, 3), W, W,
+                Region.rectangle("signal", 48, 48, 1, 1, W, W), background(), BackgroundSnr.Options.defaults());
+        assertTrue(Double.isFinite(r.snr()));
+        assertTrue(Double.isNaN(r.snrCi95().low()));
+        assertTrue(r.warnings().stream().anyMatch(w -> w.code().equals("no_interval")
+                && w.message().contains("draw a region")), r.warnings().toString());
+    }
 }

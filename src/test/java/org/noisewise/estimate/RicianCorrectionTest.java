@@ -76,4 +76,68 @@ class RicianCorrectionTest {
         assertThrows(InputException.class, () -> RicianCorrection.correct(new float[1], -1, 1, RicianCorrection.Method.KOAY_BASSER));
         assertThrows(InputException.class, () -> RicianCorrection.correct(new float[1], 1, 0, RicianCorrection.Method.KOAY_BASSER));
     }
+
+    /**
+     * Issue acceptance: over a uniform region at A/sigma >= 2 the local method's corrected image
+     * averages within 2% of the truth for L = 1 and L = 4 (common practice check in references.md
+     * section 10), where the per-pixel mean inversion is several percent low (the inversion of one noisy
+     * sample is not linear).
+     */
+    @Test
+    void localMethodMeanIsWithinTwoPercent() throws InputException {
+        int w = 160;
+        for (int l : new int[] {1, 4}) {
+            for (double theta : new double[] {2, 3, 5, 10}) {
+                SplittableRandom rng = new SplittableRandom(10L * l + (long) theta);
+                float[] px = new float[w * w];
+                for (int i = 0; i < px.length; i++) {
+                    px[i] = (float) org.noisewise.testing.NoiseFields.magnitude(rng, theta, 1.0, l);
+                }
+                double local = mean(RicianCorrection.correct(px, w, w, 1.0, l, RicianCorrection.Method.LOCAL, 5));
+                assertEquals(theta, local, 0.02 * theta, "local, L=" + l + " A/sigma=" + theta);
+                if (theta == 2) {
+                    double koay = mean(RicianCorrection.correct(px, 1.0, l, RicianCorrection.Method.KOAY_BASSER));
+                    assertTrue(koay < 0.97 * theta, "per-pixel inversion at A/sigma 2 should be low: " + koay);
+                }
+            }
+        }
+    }
+
+    private static double mean(float[] v) {
+        double s = 0;
+        for (float x : v) {
+            s += x;
+        }
+        return s / v.length;
+    }
+
+    /** The local window is a plain mean of M^2 over N x N (shrinking at the edges), minus 2L sigma^2 (closed form). */
+    @Test
+    void localMethodFormulaOnATinyImage() throws InputException {
+        float[] px = {1, 2, 3, 4, 5, 6, 7, 8, 9};
+        float[] out = RicianCorrection.correct(px, 3, 3, 1.0, 1, RicianCorrection.Method.LOCAL, 3);
+        // centre: all nine pixels, mean of squares 285/9; corner (0,0): pixels 1, 2, 4, 5
+        assertEquals(Math.sqrt(285.0 / 9 - 2), out[4], 1e-5);
+        assertEquals(Math.sqrt((1 + 4 + 16 + 25) / 4.0 - 2), out[0], 1e-5);
+        float[] withNaN = px.clone();
+        withNaN[8] = Float.NaN;
+        float[] out2 = RicianCorrection.correct(withNaN, 3, 3, 1.0, 1, RicianCorrection.Method.LOCAL, 3);
+        assertTrue(Float.isNaN(out2[8]));
+        assertEquals(Math.sqrt((285.0 - 81) / 8 - 2), out2[4], 1e-5);
+        assertThrows(InputException.class,
+                () -> RicianCorrection.correct(px, 3, 3, 1.0, 1, RicianCorrection.Method.LOCAL, 4));
+    }
+
+    /** A negative pixel carries no signal: 0 from every method, never a positive value (issue 15.7). */
+    @Test
+    void negativePixelsGiveZero() throws InputException {
+        float[] px = {-100f, -1f, 0f};
+        for (RicianCorrection.Method m : new RicianCorrection.Method[] {RicianCorrection.Method.KOAY_BASSER,
+            RicianCorrection.Method.POWER}) {
+            float[] out = RicianCorrection.correct(px, 1.0, 1, m);
+            for (float v : out) {
+                assertEquals(0f, v, m.toString());
+            }
+        }
+    }
 }

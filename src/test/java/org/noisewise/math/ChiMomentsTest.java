@@ -76,4 +76,63 @@ class ChiMomentsTest {
             assertEquals(Math.sqrt(theta * theta + 2 * l - 1), ChiMoments.mean(l, theta), 1e-4);
         }
     }
+
+    /**
+     * The recurrence mixture (no exponentials, normalised by the sum of Poisson weights) agrees with an
+     * independent evaluation of the same series through Commons Math's Poisson log-probabilities and
+     * log-gamma, and for L = 1 with the Bessel closed form.
+     */
+    @ParameterizedTest
+    @CsvSource({"1, 0.3", "1, 7", "2, 0.05", "2, 3", "4, 2", "4, 15", "8, 1", "8, 25", "32, 4", "32, 40"})
+    void recurrenceMixtureAgreesWithIndependentSum(int channels, double theta) {
+        double z = 0.5 * theta * theta;
+        double independent = PoissonMixture.sum(z, j -> Math.sqrt(2.0) * Math.exp(
+                org.apache.commons.math3.special.Gamma.logGamma(channels + j + 0.5)
+                        - org.apache.commons.math3.special.Gamma.logGamma(channels + j)));
+        assertEquals(1.0, ChiMoments.mixtureMean(channels, z) / independent, 1e-12);
+        if (channels == 1) {
+            assertEquals(1.0, ChiMoments.mixtureMean(1, z) / ChiMoments.riceMean(theta), 1e-13);
+        }
+    }
+
+    /** Kummer's asymptotic series and the mixture agree where one hands over to the other (closed forms). */
+    @ParameterizedTest
+    @CsvSource({"2", "4", "8", "16", "32"})
+    void asymptoticSeriesMeetsTheMixture(int channels) {
+        for (double f : new double[] {0.5, 1.0, 2.0}) {
+            double z = f * ChiMoments.asymptoticFrom(channels);
+            double theta = Math.sqrt(2 * z);
+            assertEquals(1.0, ChiMoments.asymptoticMean(channels, theta) / ChiMoments.mixtureMean(channels, z), 2e-14,
+                    "L=" + channels + " z=" + z);
+        }
+    }
+
+    /** The derivative matches a central difference of the mean, and is 0 at theta = 0 (closed form). */
+    @ParameterizedTest
+    @CsvSource({"1", "3", "8", "32"})
+    void derivativeMatchesDifferences(int channels) {
+        assertEquals(0.0, ChiMoments.meanDerivative(channels, 0), 0.0);
+        for (double t : new double[] {0.05, 0.8, 3, 12, 60, 400}) {
+            double h = 1e-5 * Math.max(1, t);
+            double diff = (ChiMoments.mean(channels, t + h) - ChiMoments.mean(channels, t - h)) / (2 * h);
+            assertEquals(diff, ChiMoments.meanDerivative(channels, t), 1e-7 * Math.max(1, diff), "L=" + channels
+                    + " theta=" + t);
+        }
+        // near 0 the mean is beta_L + beta_L theta^2 / (4L): derivative beta_L theta / (2L) (series, closed form)
+        double t = 1e-4;
+        assertEquals(ChiMoments.beta(channels) * t / (2 * channels), ChiMoments.meanDerivative(channels, t), 1e-12);
+    }
+
+    /** ln Gamma(x + 1/2) - ln Gamma(x): direct differences for small x, Stirling's series (closed form) for large. */
+    @Test
+    void halfRatioOfGammas() {
+        for (double x : new double[] {1, 2.5, 10, 40}) {
+            assertEquals(org.apache.commons.math3.special.Gamma.logGamma(x + 0.5)
+                    - org.apache.commons.math3.special.Gamma.logGamma(x), ChiMoments.logHalfRatio(x), 1e-13);
+        }
+        for (double x : new double[] {1e4, 1e6, 1e9}) {
+            double stirling = 0.5 * Math.log(x) - 1 / (8 * x) + 1 / (192 * x * x * x);
+            assertEquals(stirling, ChiMoments.logHalfRatio(x), 1e-13 * Math.abs(stirling));
+        }
+    }
 }

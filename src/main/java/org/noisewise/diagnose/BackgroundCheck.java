@@ -8,7 +8,6 @@ import java.util.Map;
 import java.util.SplittableRandom;
 import java.util.stream.IntStream;
 import org.apache.commons.math3.distribution.NakagamiDistribution;
-import org.apache.commons.math3.stat.inference.KolmogorovSmirnovTest;
 import org.noisewise.estimate.BackgroundNoise;
 import org.noisewise.estimate.BackgroundSigma;
 import org.noisewise.estimate.Levels;
@@ -49,8 +48,12 @@ public final class BackgroundCheck {
     public static final double ZERO_LIMIT = 0.01;
     /** More than this fraction at the type's maximum: clipped (common practice). */
     public static final double CLIP_LIMIT = 0.001;
-    /** sigma below this many stored steps: too coarsely quantised for background statistics. */
-    public static final double QUANTISATION_LIMIT = 1.0;
+    /**
+     * sigma below this many stored steps: too coarsely quantised for background statistics (Sheppard's
+     * correction of the rounding, {@code step^2/12}, holds down to about half a step; below a quarter of a
+     * step the values are mostly one or two levels and the sigma is invalid).
+     */
+    public static final double QUANTISATION_LIMIT = 0.5;
     /** The goodness-of-fit bootstrap works on at most this many pixels. */
     public static final int MAX_TESTED = 20000;
 
@@ -120,7 +123,7 @@ public final class BackgroundCheck {
     public static Result check(BackgroundNoise noise, int channels, Storage storage) {
         double[] values = noise.values();
         int n = values.length;
-        Map<SigmaEstimator, SigmaEstimate> est = noise.estimates(channels);
+        Map<SigmaEstimator, SigmaEstimate> est = noise.estimates(channels, storage.step());
         SampleStats stats = noise.stats();
         double sigma = est.get(SigmaEstimator.ML).sigma();
         int zeros = 0;
@@ -132,7 +135,9 @@ public final class BackgroundCheck {
         double zeroFraction = (double) zeros / n;
         double clippedFraction = (double) clipped / n;
         List<Warning> reasons = new ArrayList<>();
-        Verdict v = storageReasons(stats, sigma, zeroFraction, clippedFraction, storage, reasons);
+        double expectedZeros = expectedZeroFraction(sigma, channels, storage);
+        double zeroLimit = ZERO_LIMIT + expectedZeros + 3 * Math.sqrt(expectedZeros * (1 - expectedZeros) / n);
+        Verdict v = storageReasons(stats, sigma, zeroFraction, zeroLimit, clippedFraction, storage, reasons);
         if (!(sigma > 0) || !(stats.sd() > 0)) {
             return new Result(channels, n, est, stats, zeroFraction, clippedFraction, Double.NaN, Double.NaN,
                     Double.NaN, Double.NaN, v, reasons);
@@ -157,9 +162,30 @@ public final class BackgroundCheck {
                 fit.disagreement(), fit.agreementP(), v, reasons);
     }
 
-    /** Masking, a constant background, clipping and quantisation: the verdict they imply, reasons added. */
-    static Verdict storageReasons(SampleStats stats, double sigma, double zeroFraction, double clippedFraction,
-                                  Storage storage, List<Warning> reasons) {
+    /**
+     * The fraction of exact zeros rounding alone makes of sigma * chi(2L) noise: the model's probability
+     * below half a step when 0 is a stored level, else 0 (floating point keeps no exact zeros).
+     */
+    static double expectedZeroFraction(double sigma, int channels, Storage storage) {
+        if (!storage.integer() || !(sigma > 0)) {
+            return 0.0;
+        }
+        double levels = -storage.offset() / storage.step();
+        if (Math.abs(levels - Math.rint(levels)) > 1e-9) {
+            return 0.0;
+        }
+        return new NakagamiDistribution(null, channels, 2.0 * channels * sigma * sigma,
+                NakagamiDistribution.DEFAULT_INVERSE_ABSOLUTE_ACCURACY).cumulativeProbability(0.5 * storage.step());
+    }
+
+    /**
+     * Masking, a constant background, clipping and quantisation: the verdict they imply, reasons added.
+     *
+     * @param zeroLimit the fraction of exact zeros beyond which the background counts as masked
+     *                  ({@value #ZERO_LIMIT} above what rounding makes, allowing for sampling)
+     */
+    static Verdict storageReasons(SampleStats stats, double sigma, double zeroFraction, double zeroLimit,
+                                  double clippedFraction, Storage storage, List<Warning> reasons) {
         Verdict v = Verdict.VALID;
         if (!(sigma > 0)) {
             reasons.add(new Warning("masked_background", "every background pixel is exactly zero: the background "
@@ -167,7 +193,7 @@ public final class BackgroundCheck {
                     + "difference method"));
             return Verdict.INVALID;
         }
-        if (zeroFraction > ZERO_LIMIT) {
+        if (zeroFraction > zeroLimit) {
             v = Verdict.INVALID;
             reasons.add(new Warning("masked_background", String.format(Locale.ROOT,
                     "%.1f%% of the background pixels are exactly zero: the background was masked or zero-filled "
@@ -188,9 +214,9 @@ public final class BackgroundCheck {
                             + "saturated signal or artefact, not air; move them", 100 * clippedFraction)));
         }
         if (storage.step() > 0 && sigma < QUANTISATION_LIMIT * storage.step()) {
-            v = v.worst(sigma < 0.5 * storage.step() ? Verdict.INVALID : Verdict.QUESTIONABLE);
+            v = v.worst(sigma < 0.5 * QUANTISATION_LIMIT * storage.step() ? Verdict.INVALID : Verdict.QUESTIONABLE);
             reasons.add(new Warning("quantised", String.format(Locale.ROOT,
-                    "the noise sigma (%.3g) is below one stored intensity step (%.3g): the values are too "
+                    "the noise sigma (%.3g) is below half a stored intensity step (%.3g): the values are too "
                             + "coarsely quantised for background statistics; export with finer scaling or use the "
                             + "difference method", sigma, storage.step())));
         }
@@ -210,10 +236,10 @@ public final class BackgroundCheck {
         double[] values = subsample(all);
         double ratio = (double) values.length / all.length;
         int simulated = (int) Math.max(10, Math.min(values.length, Math.round(effective * ratio)));
-        Map<SigmaEstimator, SigmaEstimate> est = BackgroundSigma.estimate(values, channels);
-        double sigma = est.get(SigmaEstimator.ML).sigma();
         double[] sorted = values.clone();
         Arrays.sort(sorted);
+        Map<SigmaEstimator, Double> est = BackgroundSigma.sigmas(sorted, channels, storage.step());
+        double sigma = est.get(SigmaEstimator.ML);
         double ks = ksDistance(sorted, channels, sigma);
         double dis = disagreement(est);
         SplittableRandom master = new SplittableRandom(seedOf(sorted));
@@ -228,9 +254,9 @@ public final class BackgroundCheck {
             }
             int[] exceed = IntStream.range(0, batch).parallel().mapToObj(b -> {
                 double[] sim = simulate(streams[b], simulated, sigma, channels, storage);
-                Map<SigmaEstimator, SigmaEstimate> e = BackgroundSigma.estimate(sim, channels);
                 Arrays.sort(sim);
-                return new int[] {ksDistance(sim, channels, e.get(SigmaEstimator.ML).sigma()) >= ks ? 1 : 0,
+                Map<SigmaEstimator, Double> e = BackgroundSigma.sigmas(sim, channels, storage.step());
+                return new int[] {ksDistance(sim, channels, e.get(SigmaEstimator.ML)) >= ks ? 1 : 0,
                         disagreement(e) >= dis ? 1 : 0};
             }).reduce(new int[2], (x, y) -> new int[] {x[0] + y[0], x[1] + y[1]});
             ksExceed += exceed[0];
@@ -278,32 +304,36 @@ public final class BackgroundCheck {
     }
 
     /** Largest |log(sigma_k / sigma_ML)| over the mean-, SD- and median-based estimates. */
-    static double disagreement(Map<SigmaEstimator, SigmaEstimate> e) {
-        double ml = e.get(SigmaEstimator.ML).sigma();
+    static double disagreement(Map<SigmaEstimator, Double> e) {
+        double ml = e.get(SigmaEstimator.ML);
         double worst = 0;
         for (SigmaEstimator k : new SigmaEstimator[] {SigmaEstimator.MEAN, SigmaEstimator.SD, SigmaEstimator.MEDIAN}) {
-            worst = Math.max(worst, Math.abs(Math.log(e.get(k).sigma() / ml)));
+            worst = Math.max(worst, Math.abs(Math.log(e.get(k) / ml)));
         }
         return worst;
     }
 
-    /** KS distance of sorted data to sigma*chi(2L) = Nakagami(L, 2L sigma^2) (Commons Math). */
+    /**
+     * KS distance of sorted data to sigma * chi(2L), whose distribution function for whole L is
+     * {@code 1 - e^(-u) sum_(k<L) u^k / k!} with {@code u = x^2 / 2 sigma^2} (the regularised gamma
+     * P(L, u) in closed form; tests check it against Commons Math's Nakagami(L, 2L sigma^2)).
+     */
     static double ksDistance(double[] sorted, int channels, double sigma) {
-        NakagamiDistribution model = new NakagamiDistribution(null, channels, 2.0 * channels * sigma * sigma,
-                NakagamiDistribution.DEFAULT_INVERSE_ABSOLUTE_ACCURACY);
         int n = sorted.length;
+        double inv = 1.0 / (2.0 * sigma * sigma);
         double d = 0;
         for (int i = 0; i < n; i++) {
-            double f = model.cumulativeProbability(sorted[i]);
+            double u = sorted[i] * sorted[i] * inv;
+            double term = 1.0;
+            double sum = 1.0;
+            for (int k = 1; k < channels; k++) {
+                term *= u / k;
+                sum += term;
+            }
+            double f = Math.max(0.0, 1.0 - Math.exp(-u) * sum);
             d = Math.max(d, Math.max(f - (double) i / n, (i + 1.0) / n - f));
         }
         return d;
-    }
-
-    /** Commons Math's own KS test statistic, exposed for cross-checking {@link #ksDistance}. */
-    static double commonsKs(double[] data, int channels, double sigma) {
-        return new KolmogorovSmirnovTest().kolmogorovSmirnovStatistic(
-                new NakagamiDistribution(channels, 2.0 * channels * sigma * sigma), data);
     }
 
     private static long seedOf(double[] sorted) {

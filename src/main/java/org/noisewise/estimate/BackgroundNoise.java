@@ -142,10 +142,15 @@ public final class BackgroundNoise {
 
     /** All four sigma estimates for {@code channels}, each interval with its own effective count. */
     public Map<SigmaEstimator, SigmaEstimate> estimates(int channels) {
+        return estimates(channels, 0.0);
+    }
+
+    /** The estimates of values stored as whole multiples of {@code step} (Sheppard-corrected, see BackgroundSigma). */
+    public Map<SigmaEstimator, SigmaEstimate> estimates(int channels, double step) {
         Map<SigmaEstimator, Double> counts = new EnumMap<>(SigmaEstimator.class);
         for (SigmaEstimator e : SigmaEstimator.values()) {
             counts.put(e, effectivePixels(e));
         }
-        return BackgroundSigma.estimate(values, stats, channels, counts);
+        return BackgroundSigma.estimate(values, stats, channels, counts, step);
     }
 }

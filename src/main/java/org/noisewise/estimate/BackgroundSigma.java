@@ -38,6 +38,16 @@ public final class BackgroundSigma {
         return estimate(background, channels, background.length);
     }
 
+    /** All four estimates for independent pixels stored as whole multiples of {@code step} (0: continuous). */
+    public static Map<SigmaEstimator, SigmaEstimate> estimate(double[] background, int channels, double effectiveCount,
+                                                              double step) {
+        Map<SigmaEstimator, Double> counts = new EnumMap<>(SigmaEstimator.class);
+        for (SigmaEstimator e : SigmaEstimator.values()) {
+            counts.put(e, effectiveCount);
+        }
+        return estimate(background, SampleStats.of(background), channels, counts, step);
+    }
+
     /**
      * All four estimates, every interval from the same effective pixel count.
      *
@@ -61,6 +71,16 @@ public final class BackgroundSigma {
      */
     public static Map<SigmaEstimator, SigmaEstimate> estimate(double[] background, SampleStats stats, int channels,
                                                               Map<SigmaEstimator, Double> effectiveCounts) {
+        return estimate(background, stats, channels, effectiveCounts, 0.0);
+    }
+
+    /**
+     * All four estimates of values stored as whole multiples of {@code step} (0: continuous). Rounding
+     * adds {@code step^2 / 12} to every second moment (Sheppard's correction), which the ML and SD
+     * estimates take off; the mean and median are unaffected to first order.
+     */
+    public static Map<SigmaEstimator, SigmaEstimate> estimate(double[] background, SampleStats stats, int channels,
+                                                              Map<SigmaEstimator, Double> effectiveCounts, double step) {
         int n = background.length;
         if (n < 2) {
             throw new IllegalArgumentException("at least two background pixels are needed, got " + n);
@@ -70,8 +90,10 @@ public final class BackgroundSigma {
         }
         Map<SigmaEstimator, SigmaEstimate> out = new EnumMap<>(SigmaEstimator.class);
         out.put(SigmaEstimator.MEAN, fromMean(stats, channels, count(effectiveCounts, SigmaEstimator.MEAN, n)));
-        out.put(SigmaEstimator.SD, fromSd(stats, channels, count(effectiveCounts, SigmaEstimator.SD, n)));
-        out.put(SigmaEstimator.ML, maximumLikelihood(stats, channels, count(effectiveCounts, SigmaEstimator.ML, n)));
+        double sheppard = step > 0 ? step * step / 12.0 : 0.0;
+        out.put(SigmaEstimator.SD, fromSd(stats, channels, count(effectiveCounts, SigmaEstimator.SD, n), sheppard));
+        out.put(SigmaEstimator.ML, maximumLikelihood(stats, channels, count(effectiveCounts, SigmaEstimator.ML, n),
+                sheppard));
         out.put(SigmaEstimator.MEDIAN, fromMedian(background, channels, count(effectiveCounts, SigmaEstimator.MEDIAN, n)));
         return Collections.unmodifiableMap(out);
     }
@@ -89,12 +111,12 @@ public final class BackgroundSigma {
         return new SigmaEstimate(SigmaEstimator.MEAN, sigma, ci, s.n());
     }
 
-    static SigmaEstimate fromSd(SampleStats s, int channels, double nEff) {
+    static SigmaEstimate fromSd(SampleStats s, int channels, double nEff, double sheppard) {
         int n = s.n();
         double c = ChiMoments.centralSd(channels);
         double var = s.sd() * s.sd();
-        double sigma = s.sd() / c;
-        if (var == 0) {
+        double sigma = Math.sqrt(Math.max(0.0, var - sheppard)) / c;
+        if (var == 0 || sigma == 0) {
             return new SigmaEstimate(SigmaEstimator.SD, 0, new Interval(0, 0), n);
         }
         double varOfVar = (s.fourthCentralMoment() - var * var * (n - 3.0) / (n - 1.0)) / nEff;
@@ -104,9 +126,9 @@ public final class BackgroundSigma {
         return new SigmaEstimate(SigmaEstimator.SD, sigma, ci, n);
     }
 
-    static SigmaEstimate maximumLikelihood(SampleStats s, int channels, double nEff) {
+    static SigmaEstimate maximumLikelihood(SampleStats s, int channels, double nEff, double sheppard) {
         int n = s.n();
-        double meanSquare = s.sumSquares() / n;
+        double meanSquare = Math.max(0.0, s.sumSquares() / n - sheppard);
         double sigma = Math.sqrt(meanSquare / (2.0 * channels));
         // sum M^2 / sigma^2 ~ chi^2(2 L N); with correlated pixels the sum is worth nEff pixels.
         double dof = 2.0 * channels * nEff;
@@ -128,11 +150,12 @@ public final class BackgroundSigma {
         // binomial is taken on the effective count and the ranks mapped back to the full sample.
         int m = (int) Math.max(2, Math.floor(nEff));
         BinomialDistribution b = new BinomialDistribution(null, m, 0.5);
-        int lower = 0;
-        while (lower + 1 <= m && b.cumulativeProbability(lower) <= 0.025) {
+        // the smallest k with P(B <= k) > 0.025: the number of ranks excluded at the bottom + 1, i.e. the
+        // 1-based rank of the bound
+        int lower = b.inverseCumulativeProbability(0.025);
+        while (lower < m && b.cumulativeProbability(lower) <= 0.025) {
             lower++;
         }
-        // lower = number of ranks excluded at the bottom + 1, i.e. the 1-based rank of the bound
         int lowRank = Math.max(1, lower);
         int highRank = m - lowRank + 1;
         double scale = (double) n / m;
@@ -148,6 +171,37 @@ public final class BackgroundSigma {
 
     /** Median of chi(2L) with unit sigma: {@code sqrt(chi2inv(0.5, 2L))}; L = 1 gives sqrt(2 ln 2). */
     public static double chiMedian(int channels) {
-        return Math.sqrt(new ChiSquaredDistribution(null, 2.0 * channels, 1e-15).inverseCumulativeProbability(0.5));
+        return MEDIANS.computeIfAbsent(channels, l -> Math.sqrt(new ChiSquaredDistribution(null, 2.0 * l, 1e-15)
+                .inverseCumulativeProbability(0.5)));
+    }
+
+    private static final java.util.concurrent.ConcurrentHashMap<Integer, Double> MEDIANS =
+            new java.util.concurrent.ConcurrentHashMap<>();
+
+    /**
+     * The four sigmas without their intervals (what a bootstrap replicate needs), for values stored as
+     * whole multiples of {@code step} (0: continuous); {@code sorted} must be in ascending order.
+     */
+    public static Map<SigmaEstimator, Double> sigmas(double[] sorted, int channels, double step) {
+        int n = sorted.length;
+        double sum = 0;
+        double sq = 0;
+        for (double v : sorted) {
+            sum += v;
+            sq += v * v;
+        }
+        double mean = sum / n;
+        double dev = 0;
+        for (double v : sorted) {
+            dev += (v - mean) * (v - mean);
+        }
+        double sheppard = step > 0 ? step * step / 12.0 : 0.0;
+        double median = n % 2 == 1 ? sorted[n / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
+        Map<SigmaEstimator, Double> out = new EnumMap<>(SigmaEstimator.class);
+        out.put(SigmaEstimator.MEAN, mean / ChiMoments.beta(channels));
+        out.put(SigmaEstimator.SD, Math.sqrt(Math.max(0.0, dev / (n - 1) - sheppard)) / ChiMoments.centralSd(channels));
+        out.put(SigmaEstimator.ML, Math.sqrt(Math.max(0.0, sq / n - sheppard) / (2.0 * channels)));
+        out.put(SigmaEstimator.MEDIAN, median / chiMedian(channels));
+        return out;
     }
 }

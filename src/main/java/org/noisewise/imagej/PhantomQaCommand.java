@@ -186,7 +186,8 @@ public class PhantomQaCommand implements PlugIn {
         List<PlacedRegion> bg = new ArrayList<>();
         int w = imp.getWidth();
         int h = imp.getHeight();
-        int window = 0;
+        int windowW = 0;
+        int windowH = 0;
         for (int i = 0; i < rois.length; i++) {
             Roi r = rois[i];
             String name = RoiRegions.nameOf(r, i);
@@ -198,7 +199,8 @@ public class PhantomQaCommand implements PlugIn {
             if (n.startsWith("signal")) {
                 signal = p;
             } else if (n.startsWith("uniformity")) {
-                window = Math.max(window, (int) Math.round(b.getWidth()));
+                windowW = Math.max(windowW, (int) Math.round(b.getWidth()));
+                windowH = Math.max(windowH, (int) Math.round(b.getHeight()));
             } else if (n.startsWith("bg") || n.startsWith("background") || n.startsWith("air") || n.startsWith("noise")) {
                 bg.removeIf(x -> x.name().equals(p.name()));
                 bg.add(p);
@@ -214,10 +216,11 @@ public class PhantomQaCommand implements PlugIn {
             throw new InputException("The ROI Manager has no region named 'signal': run Phantom QA with Regions: "
                     + "Automatic first, then adjust the regions it adds.");
         }
-        if (window < 2) {
-            window = (int) Math.max(2, Math.round(Math.sqrt(0.01 * signal.region().size())));
+        if (windowW < 2 || windowH < 2) {
+            windowW = (int) Math.max(2, Math.round(Math.sqrt(0.01 * signal.region().size())));
+            windowH = windowW;
         }
-        return new QaRegions.Placement(signal, bg, sides[0], sides[1], sides[2], sides[3], window, List.of());
+        return new QaRegions.Placement(signal, bg, sides[0], sides[1], sides[2], sides[3], windowW, windowH, List.of());
     }
 
     /** The title of the table a first run on {@code imp} shows (later runs get unique titles). */

@@ -104,9 +104,11 @@ public final class DicomSeries {
             return first;
         }
         ImageStack stack = new ImageStack(w, h);
+        List<org.noisewise.diagnose.BackgroundCheck.Storage> storage = new ArrayList<>();
         for (ImagePlus s : slices) {
             for (int n = 1; n <= s.getStackSize(); n++) {
                 ImageProcessor ip = s.getStack().getProcessor(n);
+                storage.add(BackgroundValues.storage(s));
                 if (sameCalibration) {
                     stack.addSlice(s.getTitle(), ip);
                 } else {
@@ -117,7 +119,10 @@ public final class DicomSeries {
         ImagePlus out = new ImagePlus(title, stack);
         Calibration cal = first.getCalibration().copy();
         if (!sameCalibration) {
+            // the slices were stored with different scaling: keep each slice's storage facts
             cal.disableDensityCalibration();
+            out.setProperty(BackgroundValues.PER_SLICE_PROPERTY,
+                    storage.toArray(new org.noisewise.diagnose.BackgroundCheck.Storage[0]));
         }
         out.setCalibration(cal);
         out.setProperty("Info", first.getProperty("Info"));

@@ -145,6 +145,17 @@ public final class NiftiReader {
         boolean integer = datatype != 16 && datatype != 64;
         if (integer) {
             imp.setProperty(STEP_PROPERTY, scaled ? Math.abs(slope) : 1.0);
+            double rawMax = switch (datatype) {
+                case 2 -> 255;
+                case 256 -> 127;
+                case 4 -> 32767;
+                case 512 -> 65535;
+                default -> Integer.MAX_VALUE;
+            };
+            double top = scaled ? rawMax * slope + inter : rawMax;
+            double zero = scaled ? inter : 0.0;
+            imp.setProperty(BackgroundValues.OFFSET_PROPERTY, zero);
+            imp.setProperty(BackgroundValues.MAXIMUM_PROPERTY, Math.max(top, zero));
         }
         return imp;
     }

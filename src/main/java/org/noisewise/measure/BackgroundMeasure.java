@@ -61,8 +61,6 @@ public final class BackgroundMeasure {
                 notes.add("phase-encoding direction from DICOM 0018,1312: " + phase.name());
             }
         }
-        BackgroundSnr.Options options = new BackgroundSnr.Options(o.channels(), o.estimator(), phase,
-                BackgroundValues.storage(imp));
         String unit = ImagePlanes.valueUnit(imp);
         int w = imp.getWidth();
         int h = imp.getHeight();
@@ -71,11 +69,12 @@ public final class BackgroundMeasure {
             int n = planes[k];
             progress.report((double) k / planes.length, "SNR (background): slice " + n);
             float[] px = ImagePlanes.calibratedPixels(imp, n);
-            BackgroundSnr.Options po = options;
+            BackgroundSnr.Options po = new BackgroundSnr.Options(o.channels(), o.estimator(), phase,
+                    BackgroundValues.storage(imp, n));
             if (second != null) {
                 DifferenceSnrResult d = DifferenceSnr.analyze(px, ImagePlanes.calibratedPixels(second, n), w, signal,
                         o.channels() == null ? 1 : o.channels());
-                po = options.withDifference(new BackgroundSnr.DifferenceSigma(d.sigma(), d.sigmaCi95()));
+                po = po.withDifference(new BackgroundSnr.DifferenceSigma(d.sigma(), d.sigmaCi95()));
             }
             BackgroundSnrResult r = BackgroundSnr.analyze(px, w, h, signal, background, po);
             if (r.diagnosis().channelsEstimated() && r.diagnosis().channelEstimate() != null) {

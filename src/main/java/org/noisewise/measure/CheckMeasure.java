@@ -43,8 +43,6 @@ public final class CheckMeasure {
                 notes.add("phase-encoding direction from DICOM 0018,1312: " + phase.name());
             }
         }
-        BackgroundDiagnostics.Options options = new BackgroundDiagnostics.Options(o.channels(), phase,
-                BackgroundValues.storage(imp));
         String unit = ImagePlanes.valueUnit(imp);
         List<ResultRow> rows = new ArrayList<>();
         List<Plot> plots = new ArrayList<>();
@@ -54,7 +52,8 @@ public final class CheckMeasure {
             float[] px = ImagePlanes.calibratedPixels(imp, n);
             BackgroundNoise noise = BackgroundNoise.measure(px, imp.getWidth(), background);
             BackgroundDiagnostics.Diagnosis d = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(),
-                    signal, background, noise, options);
+                    signal, background, noise, new BackgroundDiagnostics.Options(o.channels(), phase,
+                            BackgroundValues.storage(imp, n)));
             rows.add(MethodRows.check(title, n, unit, d));
             plots.add(HistogramPlot.build("Background histogram - " + title + (planes.length > 1 ? " slice " + n : ""),
                     noise.values(), d, unit));

@@ -11,6 +11,7 @@ import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.RicianCorrection;
 import org.noisewise.estimate.SigmaEstimate;
 import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.ResultImages;
 import org.noisewise.report.ResultRow;
@@ -62,8 +63,8 @@ public final class CorrectionMeasure {
             double sigma = o.sigma();
             SigmaEstimate measured = null;
             if (measure) {
-                measured = BackgroundNoise.measure(px, w, roles.background()).estimates(o.channels())
-                        .get(SigmaEstimator.ML);
+                measured = BackgroundNoise.measure(px, w, roles.background()).estimates(o.channels(),
+                        BackgroundValues.storage(imp, s).step()).get(SigmaEstimator.ML);
                 sigma = measured.sigma();
                 if (!(sigma > 0)) {
                     throw new InputException("slice " + s + ": the background regions hold no noise (sigma 0: masked "

@@ -135,7 +135,8 @@ public final class QaMeasure {
             placement = rasterize(QaRegions.place(phantom, w, h, o.fraction(), phase, pw, ph), w, h);
         }
         PhantomQa.Result r = PhantomQa.run(new PhantomQa.Input(frames, w, h, Double.NaN, o.fraction(), phase, pw, ph,
-                o.channels(), BackgroundValues.storage(first), limits, placement));
+                o.channels(), BackgroundValues.storage(first, StackPlanes.hasTimeAxis(first) || repeats
+                        ? StackPlanes.index(first, o.slice(), 1) : o.slice()), limits, placement));
         String unit = ImagePlanes.valueUnit(first);
         String title = source != null ? source.getFileName().toString() : first.getTitle();
         ResultRow row = QaRows.row(title, o.slice(), unit, r);
@@ -199,7 +200,7 @@ public final class QaMeasure {
             bg.add(rasterize(b, w, h));
         }
         return new QaRegions.Placement(rasterize(p.signal(), w, h), bg, rasterize(p.top(), w, h),
-                rasterize(p.bottom(), w, h), rasterize(p.left(), w, h), rasterize(p.right(), w, h), p.windowSide(),
+                rasterize(p.bottom(), w, h), rasterize(p.left(), w, h), rasterize(p.right(), w, h), p.windowW(), p.windowH(),
                 p.warnings());
     }
 

@@ -14,9 +14,11 @@ package org.noisewise.phantom;
  * @param minY        bounding box
  * @param maxX        bounding box
  * @param maxY        bounding box
+ * @param tiltDegrees angle of the principal axis from the x axis (second moments; meaningless for a disk)
+ * @param elongation  ratio of the principal axes' extents (1 for a disk or a square)
  */
 public record Phantom(boolean[] mask, int area, double cx, double cy, double semiX, double semiY, boolean rectangular,
-                      int minX, int minY, int maxX, int maxY) {
+                      int minX, int minY, int maxX, int maxY, double tiltDegrees, double elongation) {
 
     public Phantom {
         mask = mask.clone();

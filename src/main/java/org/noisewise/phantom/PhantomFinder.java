@@ -8,7 +8,8 @@ import org.noisewise.estimate.InputException;
  * Finds a uniform phantom on a slice: pixels above a threshold (chosen by the caller, e.g. with one
  * of ImageJ's auto-threshold methods), the largest 4-connected component, holes filled, then a
  * shape fitted from the component's second moments (an ellipse, or a rectangle when the object
- * fills at least 90% of its bounding box).
+ * fills at least 90% of its bounding box), with its axes along the image axes; the tilt of the
+ * principal axis is kept, and placement warns when a visibly elongated phantom is tilted.
  *
  * <p>Clear failures: no object above the threshold, an object touching the image edge, or a second
  * object larger than 10% of the first.
@@ -108,22 +109,30 @@ public final class PhantomFinder {
         double cy = sy / area;
         double mxx = 0;
         double myy = 0;
+        double mxy = 0;
         for (int i = 0; i < n; i++) {
             if (mask[i]) {
                 double dx = i % width + 0.5 - cx;
                 double dy = i / width + 0.5 - cy;
                 mxx += dx * dx;
                 myy += dy * dy;
+                mxy += dx * dy;
             }
         }
         mxx /= area;
         myy /= area;
+        mxy /= area;
+        // orientation of the principal axis from the second moments (0 = along x); image y points down
+        double tilt = Math.toDegrees(0.5 * Math.atan2(2 * mxy, mxx - myy));
+        double spread = Math.sqrt(0.25 * (mxx - myy) * (mxx - myy) + mxy * mxy);
+        double elongation = Math.sqrt((0.5 * (mxx + myy) + spread) / Math.max(1e-12, 0.5 * (mxx + myy) - spread));
         int boxW = maxX - minX + 1;
         int boxH = maxY - minY + 1;
         boolean rectangular = area >= 0.9 * boxW * boxH;
         // second moment of a uniform ellipse about its axis is a^2/4; of a rectangle of half-width a, a^2/3
         double k = rectangular ? 3.0 : 4.0;
-        return new Phantom(mask, area, cx, cy, Math.sqrt(k * mxx), Math.sqrt(k * myy), rectangular, minX, minY, maxX, maxY);
+        return new Phantom(mask, area, cx, cy, Math.sqrt(k * mxx), Math.sqrt(k * myy), rectangular, minX, minY, maxX, maxY,
+                tilt, elongation);
     }
 
     private static void visit(int q, float[] pixels, double threshold, int[] label, int l, ArrayDeque<Integer> queue) {

@@ -120,6 +120,9 @@ public final class PhantomQa {
         String method;
         CorrectedSnr figures;
         Verdict verdict = Verdict.VALID;
+        // the image uniformity and ghosting are read from: the first frame, or the temporal mean of repeats
+        // (so the ghost-region means and the signal mean come from the same image)
+        float[] reference = first;
         BackgroundDiagnostics.Diagnosis diag = null;
         double[] bgValues = new double[0];
         if (!bg.isEmpty()) {
@@ -138,6 +141,7 @@ public final class PhantomQa {
             }
         } else if (in.frames().length > 2) {
             RepeatedAcquisitions.Maps m = RepeatedAcquisitions.maps(in.frames(), w, h, null);
+            reference = m.mean();
             RepeatedSnrResult r = RepeatedAcquisitions.summarize(m, RepeatedAcquisitions.Frames.of(in.frames()), signal,
                     in.channels() == null ? 1 : in.channels());
             method = "repeated";
@@ -162,15 +166,15 @@ public final class PhantomQa {
             warnings.addAll(r.warnings());
         }
 
-        QaMetrics.Windows win = QaMetrics.searchWindows(first, w, h, signal, pl.windowSide());
+        QaMetrics.Windows win = QaMetrics.searchWindows(reference, w, h, signal, pl.windowW(), pl.windowH());
         double piu = QaMetrics.piu(win.high(), win.low());
-        double nu = QaMetrics.nemaNonUniformity(first, w, h, signal);
+        double nu = QaMetrics.nemaNonUniformity(reference, w, h, signal);
         double ghosting = Double.NaN;
         double[] sides = new double[] {Double.NaN, Double.NaN, Double.NaN, Double.NaN};
         if (pl.top() != null && pl.bottom() != null && pl.left() != null && pl.right() != null) {
             PlacedRegion[] four = {pl.top(), pl.bottom(), pl.left(), pl.right()};
             for (int i = 0; i < 4; i++) {
-                sides[i] = SampleStats.of(four[i].region().values(first)).mean();
+                sides[i] = SampleStats.of(four[i].region().values(reference)).mean();
             }
             ghosting = QaMetrics.ghostingPercent(sides[0], sides[1], sides[2], sides[3], signalMean);
         }

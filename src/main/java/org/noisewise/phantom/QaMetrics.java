@@ -1,6 +1,7 @@
 package org.noisewise.phantom;
 
 import java.util.Locale;
+import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 
 /**
@@ -29,8 +30,8 @@ public final class QaMetrics {
         return 100.0 * Math.abs(((top + bottom) - (left + right)) / (2.0 * large));
     }
 
-    /** Uniformity windows: position and mean of the brightest and darkest. */
-    public record Windows(int side, int highX, int highY, double high, int lowX, int lowY, double low) {
+    /** Uniformity windows ({@code w x h} pixels): position and mean of the brightest and darkest. */
+    public record Windows(int w, int h, int highX, int highY, double high, int lowX, int lowY, double low) {
         public PlacedRegion highRegion(int width) {
             return window("uniformity high", highX, highY, width);
         }
@@ -40,22 +41,20 @@ public final class QaMetrics {
         }
 
         private PlacedRegion window(String name, int x, int y, int width) {
-            int[] idx = new int[side * side];
-            int k = 0;
-            for (int yy = y; yy < y + side; yy++) {
-                for (int xx = x; xx < x + side; xx++) {
-                    idx[k++] = yy * width + xx;
-                }
-            }
-            return new PlacedRegion(name, PlacedRegion.Kind.RECTANGLE, x, y, side, side, new Region(name, idx));
+            return new PlacedRegion(name, PlacedRegion.Kind.RECTANGLE, x, y, w, h,
+                    new Region(name, Region.rectangleIndices(x, y, w, h, width)));
         }
     }
 
     /**
-     * The {@code side x side} windows lying wholly inside {@code region} with the highest and lowest
-     * mean (summed-area tables, so every position is tried).
+     * The {@code sideW x sideH} windows lying wholly inside {@code region} with the highest and lowest
+     * mean (summed-area tables, so every position is tried). Non-finite pixels outside the region
+     * change nothing (they are summed as 0 and no window holding them is inside the region).
+     *
+     * @throws InputException when no such window fits inside the region
      */
-    public static Windows searchWindows(float[] pixels, int width, int height, Region region, int side) {
+    public static Windows searchWindows(float[] pixels, int width, int height, Region region, int sideW, int sideH)
+            throws InputException {
         boolean[] in = new boolean[width * height];
         for (int i : region.indices()) {
             in[i] = true;
@@ -68,8 +67,9 @@ public final class QaMetrics {
             int rowCnt = 0;
             for (int x = 0; x < width; x++) {
                 int i = y * width + x;
-                rowSum += pixels[i];
-                rowCnt += in[i] ? 1 : 0;
+                float v = pixels[i];
+                rowSum += Float.isFinite(v) ? v : 0.0;
+                rowCnt += in[i] && Float.isFinite(v) ? 1 : 0;
                 sum[(y + 1) * w1 + x + 1] = sum[y * w1 + x + 1] + rowSum;
                 cnt[(y + 1) * w1 + x + 1] = cnt[y * w1 + x + 1] + rowCnt;
             }
@@ -80,13 +80,13 @@ public final class QaMetrics {
         int by = -1;
         int wx = -1;
         int wy = -1;
-        int full = side * side;
-        for (int y = 0; y + side <= height; y++) {
-            for (int x = 0; x + side <= width; x++) {
+        int full = sideW * sideH;
+        for (int y = 0; y + sideH <= height; y++) {
+            for (int x = 0; x + sideW <= width; x++) {
                 int a = y * w1 + x;
-                int b = y * w1 + x + side;
-                int c = (y + side) * w1 + x;
-                int d = (y + side) * w1 + x + side;
+                int b = y * w1 + x + sideW;
+                int c = (y + sideH) * w1 + x;
+                int d = (y + sideH) * w1 + x + sideW;
                 if (cnt[d] - cnt[b] - cnt[c] + cnt[a] != full) {
                     continue;
                 }
@@ -104,13 +104,17 @@ public final class QaMetrics {
             }
         }
         if (bx < 0) {
-            throw new IllegalArgumentException(String.format(Locale.ROOT,
-                    "no %d x %d window fits inside the signal region", side, side));
+            throw new InputException(String.format(Locale.ROOT, "no %d x %d pixel uniformity window fits inside the "
+                    + "signal region (%d pixels): use a larger signal region (fraction), or check the pixel size",
+                    sideW, sideH, region.size()));
         }
-        return new Windows(side, bx, by, best, wx, wy, worst);
+        return new Windows(sideW, sideH, bx, by, best, wx, wy, worst);
     }
 
-    /** NEMA-style non-uniformity (percent) of the 3x3 mean-smoothed image over the region's pixels. */
+    /**
+     * NEMA-style non-uniformity (percent) of the 3x3 mean-smoothed image over the region's pixels
+     * (neighbours outside the image or not finite are left out of the 3x3 mean).
+     */
     public static double nemaNonUniformity(float[] pixels, int width, int height, Region region) {
         double max = Double.NEGATIVE_INFINITY;
         double min = Double.POSITIVE_INFINITY;
@@ -123,7 +127,7 @@ public final class QaMetrics {
                 for (int dx = -1; dx <= 1; dx++) {
                     int xx = x + dx;
                     int yy = y + dy;
-                    if (xx >= 0 && yy >= 0 && xx < width && yy < height) {
+                    if (xx >= 0 && yy >= 0 && xx < width && yy < height && Float.isFinite(pixels[yy * width + xx])) {
                         s += pixels[yy * width + xx];
                         n++;
                     }

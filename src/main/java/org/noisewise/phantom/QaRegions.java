@@ -31,7 +31,7 @@ public final class QaRegions {
 
     /** All placed regions and the cautions found while placing them. */
     public record Placement(PlacedRegion signal, List<PlacedRegion> background, PlacedRegion top, PlacedRegion bottom,
-                            PlacedRegion left, PlacedRegion right, int windowSide, List<Warning> warnings) {
+                            PlacedRegion left, PlacedRegion right, int windowW, int windowH, List<Warning> warnings) {
         public List<PlacedRegion> all() {
             List<PlacedRegion> out = new ArrayList<>();
             out.add(signal);
@@ -81,16 +81,28 @@ public final class QaRegions {
                         new Region(r.name().replace("ghost", "bg"), r.region().indices())));
             }
         }
-        int window;
+        int windowW;
+        int windowH;
         if (Double.isFinite(pixelWidthMm) && Double.isFinite(pixelHeightMm) && pixelWidthMm > 0 && pixelHeightMm > 0) {
-            window = (int) Math.max(2, Math.round(Math.sqrt(100.0 / (pixelWidthMm * pixelHeightMm))));
+            // 10 mm x 10 mm, so non-square pixels give a window square in millimetres, not in pixels
+            windowW = (int) Math.max(2, Math.round(10.0 / pixelWidthMm));
+            windowH = (int) Math.max(2, Math.round(10.0 / pixelHeightMm));
         } else {
-            window = (int) Math.max(2, Math.round(Math.sqrt(0.01 * signal.region().size())));
+            windowW = (int) Math.max(2, Math.round(Math.sqrt(0.01 * signal.region().size())));
+            windowH = windowW;
             warnings.add(new Warning("uncalibrated", String.format(Locale.ROOT, "the image has no pixel size: the "
                     + "uniformity windows (1 cm^2 in published procedures) were set to %d x %d pixels, 1%% of the "
-                    + "signal region; calibrate the image (Image > Properties) for the published size", window, window)));
+                    + "signal region; calibrate the image (Image > Properties) for the published size", windowW,
+                    windowH)));
         }
-        return new Placement(signal, bg, top, bottom, left, right, window, warnings);
+        double offAxis = Math.min(Math.abs(p.tiltDegrees()), 90 - Math.abs(p.tiltDegrees()));
+        if (offAxis > 3 && p.elongation() > 1.05) {
+            warnings.add(new Warning("tilted_phantom", String.format(Locale.ROOT, "the phantom's long axis is tilted by "
+                    + "%.0f degrees from the image axes: the regions are placed along the image axes, so the signal "
+                    + "region holds the chosen fraction but not the phantom's own shape; straighten the phantom or "
+                    + "adjust the regions by hand", p.tiltDegrees())));
+        }
+        return new Placement(signal, bg, top, bottom, left, right, windowW, windowH, warnings);
     }
 
     /** The phantom's shape scaled about its centroid to hold {@code fraction} of its pixels. */
@@ -159,13 +171,7 @@ public final class QaRegions {
             w = depth;
             h = across;
         }
-        int[] idx = new int[w * h];
-        int k = 0;
-        for (int yy = y; yy < y + h; yy++) {
-            for (int xx = x; xx < x + w; xx++) {
-                idx[k++] = yy * width + xx;
-            }
-        }
+        int[] idx = Region.rectangleIndices(x, y, w, h, width);
         for (int i : idx) {
             if (p.inside(i)) {
                 return null;

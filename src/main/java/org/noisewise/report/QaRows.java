@@ -54,9 +54,9 @@ public final class QaRows {
         out.addAll(r.placement().background());
         // the uniformity windows' geometry (their pixels are not needed here)
         out.add(new PlacedRegion("uniformity high", PlacedRegion.Kind.RECTANGLE, r.windows().highX(), r.windows().highY(),
-                r.windows().side(), r.windows().side(), null));
+                r.windows().w(), r.windows().h(), null));
         out.add(new PlacedRegion("uniformity low", PlacedRegion.Kind.RECTANGLE, r.windows().lowX(), r.windows().lowY(),
-                r.windows().side(), r.windows().side(), null));
+                r.windows().w(), r.windows().h(), null));
         return out;
     }
 }

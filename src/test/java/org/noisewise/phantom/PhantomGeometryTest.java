@@ -65,7 +65,7 @@ class PhantomGeometryTest {
             }
         }
         assertEquals(4, pl.background().size());
-        QaMetrics.Windows w = QaMetrics.searchWindows(px, N, N, pl.signal().region(), pl.windowSide());
+        QaMetrics.Windows w = QaMetrics.searchWindows(px, N, N, pl.signal().region(), pl.windowW(), pl.windowH());
         for (PlacedRegion win : List.of(w.highRegion(N), w.lowRegion(N))) {
             for (int i : win.region().indices()) {
                 assertTrue(truth.test(i), "uniformity window outside the phantom");
@@ -75,7 +75,8 @@ class PhantomGeometryTest {
             assertTrue(pl.warnings().stream().anyMatch(x -> x.code().equals("uncalibrated")));
         } else {
             // 1 cm^2 = 100 mm^2 (references.md section 4: ~1 cm^2 high and low regions)
-            assertEquals(Math.sqrt(100 / (pixelMm * pixelMm)), pl.windowSide(), 0.5);
+            assertEquals(10 / pixelMm, pl.windowW(), 0.5);
+            assertEquals(10 / pixelMm, pl.windowH(), 0.5);
             assertTrue(pl.warnings().isEmpty(), pl.warnings().toString());
         }
     }
@@ -123,5 +124,42 @@ class PhantomGeometryTest {
         InputException t = assertThrows(InputException.class,
                 () -> PhantomFinder.find(pair, N, N, PhantomLocator.threshold(pair)));
         assertTrue(t.getMessage().contains("more than one object"), t.getMessage());
+    }
+
+    /** Issue 15.10: non-square pixels give uniformity windows 10 mm x 10 mm, not square in pixels. */
+    @Test
+    void windowsAreSquareInMillimetres() throws InputException {
+        IntPredicate truth = disk(64, 64, 40);
+        float[] px = image(truth, 3);
+        Phantom p = PhantomFinder.find(px, N, N, 50);
+        QaRegions.Placement pl = QaRegions.place(p, N, N, 0.75, PhaseDirection.UNKNOWN, 0.5, 1.25);
+        assertEquals(20, pl.windowW());
+        assertEquals(8, pl.windowH());
+    }
+
+    /**
+     * Issue 15.10: a tilted elongated phantom gets axis-aligned regions (a stated limit) and a warning;
+     * a straight one and a disk get none. The second moments give the tilt (closed form for an ellipse).
+     */
+    @Test
+    void tiltedPhantomIsWarnedAbout() throws InputException {
+        double a = 45;
+        double b = 25;
+        for (double deg : new double[] {0, 30}) {
+            double t = Math.toRadians(deg);
+            IntPredicate truth = i -> {
+                double dx = i % N + 0.5 - 64;
+                double dy = i / N + 0.5 - 64;
+                double u = dx * Math.cos(t) + dy * Math.sin(t);
+                double v = -dx * Math.sin(t) + dy * Math.cos(t);
+                return (u / a) * (u / a) + (v / b) * (v / b) <= 1;
+            };
+            Phantom p = PhantomFinder.find(image(truth, 5), N, N, 50);
+            assertEquals(deg, p.tiltDegrees(), 1.0);
+            assertEquals(a / b, p.elongation(), 0.05);
+            QaRegions.Placement pl = QaRegions.place(p, N, N, 0.75, PhaseDirection.UNKNOWN, 1, 1);
+            boolean warned = pl.warnings().stream().anyMatch(w -> w.code().equals("tilted_phantom"));
+            assertEquals(deg != 0, warned, pl.warnings().toString());
+        }
     }
 }

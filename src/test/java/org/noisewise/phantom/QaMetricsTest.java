@@ -64,13 +64,23 @@ class QaMetricsTest {
         }
         Phantom p = PhantomFinder.find(px, N, N, 50);
         QaRegions.Placement pl = QaRegions.place(p, N, N, 0.75, PhaseDirection.UNKNOWN, 1.0, 1.0);
-        QaMetrics.Windows w = QaMetrics.searchWindows(px, N, N, pl.signal().region(), pl.windowSide());
+        QaMetrics.Windows w = QaMetrics.searchWindows(px, N, N, pl.signal().region(), pl.windowW(), pl.windowH());
         double rs = Math.sqrt(pl.signal().region().size() / Math.PI);
-        double s = pl.windowSide();
+        double s = pl.windowW();
         double d = Math.sqrt(rs * rs - s * s / 4) - s / 2;
         double expected = 100 * (1 - g * d / radius);
         assertEquals(expected, QaMetrics.piu(w.high(), w.low()), 0.5);
         assertTrue(w.highX() > w.lowX(), "the bright window must be on the right");
+        // issue 15.3: a NaN pixel outside every region changes nothing, wherever it is
+        for (int at : new int[] {0, 90 * N, N * N - 1}) {
+            float[] withNaN = px.clone();
+            withNaN[at] = Float.NaN;
+            QaMetrics.Windows wn = QaMetrics.searchWindows(withNaN, N, N, pl.signal().region(), pl.windowW(),
+                    pl.windowH());
+            assertEquals(w, wn, "NaN at " + at);
+            assertEquals(QaMetrics.nemaNonUniformity(px, N, N, pl.signal().region()),
+                    QaMetrics.nemaNonUniformity(withNaN, N, N, pl.signal().region()), 0.0);
+        }
     }
 
     /**
@@ -141,6 +151,19 @@ class QaMetricsTest {
                     PhaseDirection.UNKNOWN, 1.0, 1.0, 1, null, null, null));
             assertEquals(expected[k - 1], r.method());
             assertEquals(25.0, r.snr(), 2.5, r.method());
+            if (k == 3) {
+                // issue 15.10: repeats read the ghost regions from the temporal mean, as the signal mean is
+                float[] mean = new float[N * N];
+                for (int i = 0; i < mean.length; i++) {
+                    mean[i] = (float) ((frames[0][i] + (double) frames[1][i] + frames[2][i]) / 3);
+                }
+                PlacedRegion top = r.placement().top();
+                double m = 0;
+                for (int i : top.region().indices()) {
+                    m += mean[i];
+                }
+                assertEquals(m / top.region().size(), r.sideMeans()[0], 1e-4);
+            }
         }
     }
 }

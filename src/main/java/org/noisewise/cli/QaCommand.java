@@ -39,7 +39,7 @@ public class QaCommand implements Callable<Integer> {
             description = "With --log: write one trend plot per metric as PNG (trend_<metric>.png) into DIR.")
     Path trends;
 
-    @Option(names = "--force", description = "Replace the report file if it exists.")
+    @Option(names = "--force", description = "Replace the report and trend files if they exist (never an input).")
     boolean force;
 
     @Option(names = "--fraction", paramLabel = "F", defaultValue = "0.75",
@@ -93,12 +93,17 @@ public class QaCommand implements Callable<Integer> {
         Integer channels = channelOption.get(true);
         ImagePlus first = ImageFiles.open(images.get(0));
         ImagePlus second = images.size() > 1 ? ImageFiles.open(images.get(1)) : null;
-        if (trends != null && (log == null || !java.nio.file.Files.isDirectory(trends))) {
-            throw new InputException("--trends needs --log and an existing folder; '" + trends + "' is not one");
+        if (trends != null && log == null) {
+            throw new InputException("--trends plots the QA log: give --log qa.csv as well");
+        }
+        if (limits && field == null && org.noisewise.io.ImageMetadata.number(first, "0018,0087") == null) {
+            throw new InputException("the published limits depend on field strength, which '" + images.get(0)
+                    .getFileName() + "' does not state (DICOM 0018,0087): give it with --field T");
         }
         QaMeasure.Options o = new QaMeasure.Options(fraction, phase == null ? null : BackgroundCommand.parsePhase(phase),
                 channels, field, limits, scanner, coil, protocol, baseline, log, report, force, slice, trends, repeats);
         QaMeasure.Outcome out = QaMeasure.run(first, second, null, o, images.get(0));
+        Output.notes(spec.commandLine().getErr(), "qa", out.notes());
         Output.print(spec.commandLine().getOut(), List.of(out.row()), json);
         if (report != null) {
             spec.commandLine().getErr().println("qa: wrote report " + report);

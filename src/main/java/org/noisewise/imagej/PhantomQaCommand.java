@@ -101,6 +101,10 @@ public class PhantomQaCommand implements PlugIn {
                 throw new InputException("The fraction must lie between 0 and 1, Baseline sessions be at least 2, Slice "
                         + "at least 1 and Field strength not negative.");
             }
+            if (limits && field == 0 && org.noisewise.io.ImageMetadata.number(imp, "0018,0087") == null) {
+                throw new InputException("The published limits depend on field strength, which '" + imp.getTitle()
+                        + "' does not state (DICOM 0018,0087): type it in the dialog's Field strength (T).");
+            }
             ImagePlus second = NONE.equals(secondTitle) ? null : WindowManager.getImage(secondTitle);
             QaRegions.Placement placement = manager ? fromManager(imp) : null;
             QaMeasure.Options o = new QaMeasure.Options(fraction, phase, channels, field > 0 ? field : null, limits,
@@ -109,6 +113,7 @@ public class PhantomQaCommand implements PlugIn {
                     report.isEmpty() ? null : Path.of(report), replace, slice, null, repeats);
             QaMeasure.Outcome out = process(imp, second, placement, o);
             Face.show(TITLE, imp, List.of(out.row()), append);
+            Face.log(TITLE, out.notes());
             if (!manager) {
                 addToManager(imp, QaRows.regions(out.result()));
             }

@@ -10,10 +10,23 @@ import java.nio.file.StandardCopyOption;
 import org.noisewise.estimate.InputException;
 
 /**
- * Writes output files safely: never over an existing file unless asked, and through a temporary
- * file in the same folder renamed into place, so an interrupted run leaves no half-written file.
+ * Writes output files safely: never over an existing file unless asked, never over an input, and
+ * through a temporary file in the same folder ({@code .NAME.<random>.part}) renamed into place, so an
+ * interrupted run leaves no half-written file. Temporary files are removed on every normal and error
+ * exit and, through a shutdown hook, when the program is interrupted; one left by a killed process
+ * (which no hook survives) is removed by the next write of the same file once it is older than this
+ * run.
  */
 public final class ImageWriter {
+
+    /** Temporary files this process has open, removed by the shutdown hook if still there. */
+    private static final java.util.Set<Path> OPEN = java.util.concurrent.ConcurrentHashMap.newKeySet();
+    private static final long STARTED = java.lang.management.ManagementFactory.getRuntimeMXBean().getStartTime();
+
+    static {
+        Runtime.getRuntime().addShutdownHook(new Thread(() -> OPEN.forEach(ImageWriter::deleteQuietly),
+                "noisewise-temporary-files"));
+    }
 
     private ImageWriter() {
     }
@@ -32,8 +45,23 @@ public final class ImageWriter {
         checkWritable(out, force);
     }
 
+    /**
+     * Checks that files can be created in the folder of {@code out}, saying why not (missing folder,
+     * no permission, read-only file system) before anything is measured.
+     */
+    public static void checkFolderWritable(Path out) throws InputException {
+        Path dir = out.toAbsolutePath().getParent();
+        if (dir == null || !Files.isDirectory(dir)) {
+            throw new InputException("folder '" + dir + "' does not exist: create it first, or write elsewhere");
+        }
+        if (!Files.isWritable(dir)) {
+            throw new InputException("cannot write in folder '" + dir + "': permission denied or a read-only file "
+                    + "system; write elsewhere");
+        }
+    }
+
     /** Whether two paths name the same file (or would, once {@code a} exists). */
-    static boolean sameFile(Path a, Path b) {
+    public static boolean sameFile(Path a, Path b) {
         try {
             if (Files.exists(a) && Files.exists(b)) {
                 return Files.isSameFile(a, b);
@@ -79,7 +107,7 @@ public final class ImageWriter {
             }
             moveIntoPlace(tmp, out);
         } finally {
-            deleteQuietly(tmp);
+            release(tmp);
         }
     }
 
@@ -90,9 +118,9 @@ public final class ImageWriter {
             Files.write(tmp, bytes);
             moveIntoPlace(tmp, out);
         } catch (IOException e) {
-            throw new InputException("could not write '" + out + "': " + e.getMessage());
+            throw new InputException("could not write '" + out + "': " + reason(e));
         } finally {
-            deleteQuietly(tmp);
+            release(tmp);
         }
     }
 
@@ -104,19 +132,66 @@ public final class ImageWriter {
             Files.writeString(tmp, text);
             moveIntoPlace(tmp, out);
         } catch (IOException e) {
-            throw new InputException("could not write '" + out + "': " + e.getMessage());
+            throw new InputException("could not write '" + out + "': " + reason(e));
         } finally {
-            deleteQuietly(tmp);
+            release(tmp);
         }
     }
 
-    static Path temporaryBeside(Path out) throws InputException {
-        Path dir = out.toAbsolutePath().getParent();
-        try {
-            return Files.createTempFile(dir, "." + out.getFileName() + ".", ".part");
-        } catch (IOException e) {
-            throw new InputException("cannot write in '" + dir + "': " + e.getMessage());
+    /** The reason an I/O operation failed, in words. */
+    static String reason(IOException e) {
+        if (e instanceof java.nio.file.AccessDeniedException) {
+            return "permission denied";
         }
+        if (e instanceof java.nio.file.NoSuchFileException) {
+            return "no such folder";
+        }
+        if (e instanceof java.nio.file.FileSystemException f && f.getReason() != null) {
+            return f.getReason();
+        }
+        return e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage();
+    }
+
+    /**
+     * A new temporary file beside {@code out}, registered for removal at exit; stale ones of the same
+     * target from an earlier, killed run are removed first.
+     */
+    public static Path temporaryBeside(Path out) throws InputException {
+        Path dir = out.toAbsolutePath().getParent();
+        removeStale(out);
+        try {
+            Path tmp = Files.createTempFile(dir, "." + out.getFileName() + ".", ".part");
+            OPEN.add(tmp);
+            return tmp;
+        } catch (java.nio.file.AccessDeniedException e) {
+            throw new InputException("cannot write in folder '" + dir + "': permission denied; write elsewhere");
+        } catch (IOException e) {
+            throw new InputException("cannot write in folder '" + dir + "': " + reason(e));
+        }
+    }
+
+    /** Removes {@code .NAME.*.part} files of {@code out} last written before this process started. */
+    static void removeStale(Path out) {
+        Path dir = out.toAbsolutePath().getParent();
+        String prefix = "." + out.getFileName() + ".";
+        try (var files = Files.newDirectoryStream(dir, f -> {
+            String n = f.getFileName().toString();
+            return n.startsWith(prefix) && n.endsWith(".part");
+        })) {
+            for (Path f : files) {
+                if (!OPEN.contains(f) && Files.getLastModifiedTime(f).toMillis() < STARTED) {
+                    Files.deleteIfExists(f);
+                }
+            }
+        } catch (IOException | java.nio.file.DirectoryIteratorException ignored) {
+            // cleaning up after another process is a courtesy, never a reason to fail
+        }
+    }
+
+    /** Removes a temporary file (after it was renamed into place, or on failure). */
+    public static void release(Path tmp) {
+        deleteQuietly(tmp);
+        OPEN.remove(tmp);
     }
 
     public static void moveIntoPlace(Path tmp, Path out) throws InputException {
@@ -136,7 +211,7 @@ public final class ImageWriter {
                 Files.move(tmp, out, StandardCopyOption.REPLACE_EXISTING);
             }
         } catch (IOException e) {
-            throw new InputException("could not write '" + out + "': " + e.getMessage());
+            throw new InputException("could not write '" + out + "': " + reason(e));
         }
     }
 

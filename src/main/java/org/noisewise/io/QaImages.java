@@ -24,6 +24,13 @@ public final class QaImages {
     private QaImages() {
     }
 
+    /** The colour of each kind of region, as drawn and as the captions name it. */
+    public static final String LEGEND = "signal region yellow, ghosting regions (also background, where marked + bg) "
+            + "magenta, background-only regions cyan, uniformity high green, uniformity low orange";
+
+    /** The largest side of a slice drawn in a report. */
+    public static final int MAX_SIDE = 1024;
+
     /** An ImageJ ROI for a placed region, named and coloured by its role. */
     public static Roi roi(PlacedRegion p) {
         Roi r = p.kind() == PlacedRegion.Kind.OVAL ? new OvalRoi(p.x(), p.y(), p.w(), p.h())
@@ -33,7 +40,7 @@ public final class QaImages {
         return r;
     }
 
-    private static Color colour(String name) {
+    static Color colour(String name) {
         if (name.startsWith("signal")) {
             return Color.yellow;
         }
@@ -46,12 +53,19 @@ public final class QaImages {
         return name.contains("high") ? Color.green : Color.orange;
     }
 
-    /** The slice, enlarged for legibility, with every region drawn and labelled. */
+    /**
+     * The slice with every region drawn and labelled, scaled so the long side is between 384 and
+     * {@value #MAX_SIDE} pixels (small images enlarged, large ones reduced, regions drawn at that scale),
+     * labels kept inside the picture.
+     */
     public static ImagePlus sliceWithRegions(String title, float[] pixels, int width, int height, List<PlacedRegion> regions) {
-        int zoom = Math.max(1, (int) Math.ceil(384.0 / Math.max(width, height)));
+        int side = Math.max(width, height);
+        double scale = side < 384 ? Math.ceil(384.0 / side) : side > MAX_SIDE ? (double) MAX_SIDE / side : 1.0;
+        int sw = Math.max(1, (int) Math.round(width * scale));
+        int sh = Math.max(1, (int) Math.round(height * scale));
         ImageProcessor ip = new FloatProcessor(width, height, pixels.clone());
-        ip.setInterpolationMethod(ImageProcessor.NONE);
-        ip = ip.resize(width * zoom, height * zoom);
+        ip.setInterpolationMethod(scale >= 1 ? ImageProcessor.NONE : ImageProcessor.BILINEAR);
+        ip = scale == 1.0 ? ip : ip.resize(sw, sh, scale < 1);
         ip.resetMinAndMax();
         ImagePlus imp = new ImagePlus(title, ip.convertToByte(true));
         Overlay ov = new Overlay();
@@ -65,12 +79,15 @@ public final class QaImages {
                     p.w(), p.h(), null));
         }
         for (PlacedRegion p : byPlace.values()) {
-            PlacedRegion z = new PlacedRegion(p.name(), p.kind(), p.x() * zoom, p.y() * zoom, p.w() * zoom, p.h() * zoom,
-                    null);
+            PlacedRegion z = new PlacedRegion(p.name(), p.kind(), p.x() * scale, p.y() * scale, p.w() * scale,
+                    p.h() * scale, null);
             Roi r = roi(z);
             r.setStrokeWidth(1.5);
             ov.add(r);
-            TextRoi label = new TextRoi(z.x() + 2, z.y() + 1, p.name(), font);
+            int textW = 7 * p.name().length();
+            double lx = Math.max(1, Math.min(sw - textW - 1, z.x() + 2));
+            double ly = Math.max(1, Math.min(sh - 14, z.y() + 1));
+            TextRoi label = new TextRoi(lx, ly, p.name(), font);
             label.setStrokeColor(colour(p.name()));
             ov.add(label);
         }
@@ -78,54 +95,86 @@ public final class QaImages {
         return imp.flatten();
     }
 
-    /** A metric's history with its baseline band (mean, +/- 2 SD, +/- 3 SD) and a published limit. */
-    public static Plot trend(String label, double[] values, QaLog.Baseline b, ActionLimits limits, String metric) {
-        double[] x = new double[values.length];
-        for (int i = 0; i < x.length; i++) {
-            x[i] = i + 1;
-        }
-        Plot plot = new Plot("Trend - " + label, "Session", label);
+    /**
+     * A metric's history against acquisition date with its baseline: the warning band shaded, the
+     * centre, the action limits, a published limit, and the sessions that form the baseline filled.
+     *
+     * @param days    each session's acquisition time in days since the first
+     * @param members which sessions are baseline members
+     * @param origin  the date day 0 stands for, for the axis label
+     */
+    public static Plot trend(String label, double[] days, double[] values, boolean[] members, QaLog.Baseline b,
+                             ActionLimits limits, String metric, String origin) {
+        Plot plot = new Plot("Trend - " + label, "Days since " + origin, label);
         double lo = Double.POSITIVE_INFINITY;
         double hi = Double.NEGATIVE_INFINITY;
-        for (double v : values) {
-            if (Double.isFinite(v)) {
-                lo = Math.min(lo, v);
-                hi = Math.max(hi, v);
+        double x0 = 0;
+        double x1 = 1;
+        for (int i = 0; i < values.length; i++) {
+            if (Double.isFinite(values[i])) {
+                lo = Math.min(lo, values[i]);
+                hi = Math.max(hi, values[i]);
             }
+            x1 = Math.max(x1, days[i]);
         }
-        double[] ends = {0.5, values.length + 0.5};
-        if (b.complete() && b.sd() > 0) {
-            plot.setColor(new Color(120, 170, 120));
-            plot.addPoints(ends, new double[] {b.mean(), b.mean()}, Plot.LINE);
-            plot.setColor(new Color(230, 170, 40));
-            for (int k : new int[] {-2, 2}) {
-                plot.addPoints(ends, new double[] {b.mean() + k * b.sd(), b.mean() + k * b.sd()}, Plot.LINE);
-            }
-            plot.setColor(new Color(200, 40, 40));
-            for (int k : new int[] {-3, 3}) {
-                plot.addPoints(ends, new double[] {b.mean() + k * b.sd(), b.mean() + k * b.sd()}, Plot.LINE);
-            }
-            lo = Math.min(lo, b.mean() - 3.3 * b.sd());
-            hi = Math.max(hi, b.mean() + 3.3 * b.sd());
+        double pad = 0.04 * (x1 - x0) + 0.5;
+        double[] ends = {x0 - pad, x1 + pad};
+        if (b.usable()) {
+            lo = Math.min(lo, b.actionLow());
+            hi = Math.max(hi, b.actionHigh());
         }
         Double limit = limits == null ? null : metric.equals("uniformity_piu") ? Double.valueOf(limits.minimumPiu())
                 : metric.equals("ghosting_percent") ? Double.valueOf(limits.maximumGhostingPercent()) : null;
         if (limit != null) {
-            plot.setColor(Color.black);
-            plot.setLineWidth(2);
-            plot.addPoints(ends, new double[] {limit, limit}, Plot.LINE);
-            plot.setLineWidth(1);
             lo = Math.min(lo, limit);
             hi = Math.max(hi, limit);
         }
+        if (!(hi >= lo)) {
+            lo = 0;
+            hi = 1;
+        }
+        double ypad = hi > lo ? 0.08 * (hi - lo) : Math.max(1e-6, Math.abs(hi) * 0.05);
+        double bottom = lo - ypad;
+        plot.setLimits(ends[0], ends[1], bottom, hi + ypad);
+        if (b.usable()) {
+            // the warning band: filled to the bottom of the frame, then the part below it painted over
+            plot.setColor(new Color(255, 235, 180), new Color(255, 235, 180));
+            plot.add("filled", ends, new double[] {b.warningHigh(), b.warningHigh()});
+            plot.setColor(Color.white, Color.white);
+            plot.add("filled", ends, new double[] {b.warningLow(), b.warningLow()});
+            plot.setColor(new Color(120, 170, 120));
+            plot.add("line", ends, new double[] {b.center(), b.center()});
+            plot.setColor(new Color(200, 40, 40));
+            plot.add("line", ends, new double[] {b.actionLow(), b.actionLow()});
+            plot.add("line", ends, new double[] {b.actionHigh(), b.actionHigh()});
+        }
+        if (limit != null) {
+            plot.setColor(Color.black);
+            plot.setLineWidth(2);
+            plot.add("line", ends, new double[] {limit, limit});
+            plot.setLineWidth(1);
+        }
         plot.setColor(new Color(20, 90, 170));
-        plot.addPoints(x, values, Plot.CONNECTED_CIRCLES);
-        double pad = hi > lo ? 0.08 * (hi - lo) : Math.max(1e-6, Math.abs(hi) * 0.05);
-        plot.setLimits(0.5, values.length + 0.5, lo - pad, hi + pad);
+        plot.add("connected circle", days, values);
+        int m = 0;
+        for (boolean k : members) {
+            m += k ? 1 : 0;
+        }
+        double[] mx = new double[m];
+        double[] my = new double[m];
+        for (int i = 0, k = 0; i < members.length; i++) {
+            if (members[i]) {
+                mx[k] = days[i];
+                my[k++] = values[i];
+            }
+        }
+        plot.setColor(new Color(20, 90, 170), new Color(20, 90, 170));
+        plot.add("filled circle", mx, my);
         plot.setColor(Color.black);
-        plot.addLabel(0.01, 0.06, b.complete() ? "baseline: first " + b.needed() + " sessions; green mean, amber +/-2 SD, "
-                + "red +/-3 SD" + (limit != null ? "; black: published limit" : "")
-                : "baseline forming: " + b.sessions() + " of " + b.needed() + " sessions");
+        plot.addLabel(0.01, 0.06, b.usable() ? String.format(java.util.Locale.ROOT, "baseline %d of %d sessions (filled): "
+                + "green centre, shaded warning band, red action limits%s", b.sessions(), b.needed(),
+                limit != null ? "; black: published limit" : "")
+                : "baseline forming: " + b.sessions() + " of at least " + QaLog.MIN_COMPARE + " sessions");
         return plot;
     }
 

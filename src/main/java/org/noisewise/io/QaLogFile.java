@@ -18,12 +18,53 @@ import org.noisewise.phantom.QaLog;
  * file in the same folder, forces it to disk and renames it over the log. The log is therefore
  * always either the old or the new complete file, whatever kills a writer; rows already in it are
  * copied byte for byte and never changed; two writers never lose each other's rows.
+ *
+ * <p>The {@code .lock} file is the lock itself and stays beside the log: removing it after each
+ * append would let a second writer lock a new file while a third still holds the old one. It is empty
+ * and may be deleted whenever no QA run is writing. Two copies of this class in one JVM (Fiji can
+ * load a plugin twice) share no in-process lock; the operating-system lock then reports an overlap,
+ * and the append waits and tries again. A log begun by an earlier version keeps its own header:
+ * new rows are written in its columns (columns it lacks are left out, with a note).
  */
 public final class QaLogFile {
 
     private static final ReentrantLock IN_PROCESS = new ReentrantLock();
 
     private QaLogFile() {
+    }
+
+    /** The log's columns missing from an existing log's header (written by an earlier version). */
+    public static List<String> missingColumns(Path log) throws InputException {
+        if (!Files.exists(log)) {
+            return List.of();
+        }
+        try {
+            List<String> have = QaLog.headerOf(Files.readString(log, StandardCharsets.UTF_8));
+            return QaLog.COLUMNS.stream().filter(c -> !have.contains(c)).toList();
+        } catch (IOException e) {
+            throw new InputException("cannot read QA log '" + log + "': " + e.getMessage());
+        }
+    }
+
+    /** The operating-system lock, waiting while another copy of this class in the same JVM holds it. */
+    private static FileLock lock(FileChannel ch, Path log) throws IOException, InputException {
+        long deadline = System.nanoTime() + 60_000_000_000L;
+        while (true) {
+            try {
+                return ch.lock();
+            } catch (java.nio.channels.OverlappingFileLockException e) {
+                if (System.nanoTime() > deadline) {
+                    throw new InputException("the QA log '" + log + "' stayed locked by another run in this program for "
+                            + "a minute: let it finish, then try again");
+                }
+                try {
+                    Thread.sleep(20);
+                } catch (InterruptedException ie) {
+                    Thread.currentThread().interrupt();
+                    throw new InputException("interrupted while waiting for the QA log '" + log + "'");
+                }
+            }
+        }
     }
 
     /** The rows of the log, or none when it does not exist yet. */
@@ -56,7 +97,7 @@ public final class QaLogFile {
         Path lock = log.resolveSibling(log.getFileName() + ".lock");
         IN_PROCESS.lock();
         try (FileChannel ch = FileChannel.open(lock, StandardOpenOption.CREATE, StandardOpenOption.WRITE);
-             FileLock ignored = ch.lock()) {
+             FileLock ignored = lock(ch, log)) {
             String old = Files.exists(log) ? Files.readString(log, StandardCharsets.UTF_8) : "";
             if (!old.isEmpty() && !old.startsWith(QaLog.COLUMNS.get(0))) {
                 throw new InputException("'" + log + "' is not a Noisewise QA log (its first line is not the expected "
@@ -69,8 +110,9 @@ public final class QaLogFile {
                 text.append("\r\n");
             }
             List<QaLog.Entry> history = QaLog.parse(old);
-            text.append(QaLog.line(make.apply(history))).append("\r\n");
-            Path tmp = Files.createTempFile(dir, "." + log.getFileName() + ".", ".part");
+            List<String> columns = old.isEmpty() ? QaLog.COLUMNS : QaLog.headerOf(old);
+            text.append(QaLog.line(make.apply(history), columns)).append("\r\n");
+            Path tmp = ImageWriter.temporaryBeside(log);
             try {
                 try (FileChannel out = FileChannel.open(tmp, StandardOpenOption.WRITE)) {
                     out.write(java.nio.ByteBuffer.wrap(text.toString().getBytes(StandardCharsets.UTF_8)));
@@ -78,7 +120,7 @@ public final class QaLogFile {
                 }
                 ImageWriter.moveIntoPlace(tmp, log);
             } finally {
-                Files.deleteIfExists(tmp);
+                ImageWriter.release(tmp);
             }
             return history;
         } catch (IOException e) {

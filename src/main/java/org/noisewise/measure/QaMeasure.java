@@ -80,36 +80,39 @@ public final class QaMeasure {
         }
     }
 
-    /** What a run produced. */
+    /**
+     * What a run produced.
+     *
+     * @param baselines each metric's baseline as it judged this session
+     */
     public record Outcome(PhantomQa.Result result, ResultRow row, List<String> flags, List<QaLog.Entry> history,
-                          QaLog.Entry entry) {
+                          QaLog.Entry entry, Map<String, QaLog.Baseline> baselines, List<String> notes) {
     }
 
     /**
      * @param first     the image (a single slice, a stack of repeats, or the first of two acquisitions)
      * @param second    the second acquisition, or null
      * @param placement regions to use instead of automatic ones (e.g. adjusted in the ROI Manager), or null
-     * @param source    the file the image came from, for the acquisition time when DICOM has none; may be null
+     * @param source    the file the image came from (never replaced by an output); may be null
      */
     public static Outcome run(ImagePlus first, ImagePlus second, QaRegions.Placement placement, Options o, Path source)
             throws InputException {
         ImagePlanes.requireGrayscale(first);
-        if (o.report() != null) {
-            ImageWriter.checkWritable(o.report(), o.force());
-        }
+        checkOutputs(o, source);
+        List<String> notes = new ArrayList<>(Measurement.imageNotes(first, second));
         int w = first.getWidth();
         int h = first.getHeight();
         // Repeats are a hyperstack's time frames, or a plain stack's slices when the user says so;
         // otherwise a plain stack holds z slices and one of them is measured.
         boolean repeats = StackPlanes.hasTimeAxis(first) || (o.repeats() && first.getStackSize() > 1);
+        if (o.repeats() && !repeats) {
+            throw new InputException("repeated acquisitions were declared, but '" + first.getTitle() + "' holds a single "
+                    + "frame: give a stack of repeats, or leave the repeats option off to use the background method");
+        }
         float[][] frames;
         if (second != null) {
             ImagePlanes.requireGrayscale(second);
-            if (second.getWidth() != w || second.getHeight() != h || second.getStackSize() != first.getStackSize()) {
-                throw new InputException("the two acquisitions differ in size (" + w + "x" + h + "x"
-                        + first.getStackSize() + " and " + second.getWidth() + "x" + second.getHeight() + "x"
-                        + second.getStackSize() + "): give two scans of the same matrix and slices");
-            }
+            ImagePlanes.requireSameShape(first, first.getTitle(), second, second.getTitle());
             frames = new float[][] {slicePixels(first, o.slice()), slicePixels(second, o.slice())};
         } else if (repeats) {
             frames = StackPlanes.repeats(first, o.slice());
@@ -120,74 +123,159 @@ public final class QaMeasure {
         double toMm = mmPerUnit(cal.getUnit());
         double pw = cal.scaled() && Double.isFinite(toMm) ? cal.pixelWidth * toMm : Double.NaN;
         double ph = cal.scaled() && Double.isFinite(toMm) ? cal.pixelHeight * toMm : Double.NaN;
-        PhaseDirection phase = o.phase() != null ? o.phase() : ImageMetadata.phaseDirection(first);
+        PhaseDirection phase = o.phase();
+        if (phase == null) {
+            phase = ImageMetadata.phaseDirection(first);
+            if (phase != PhaseDirection.UNKNOWN) {
+                notes.add("phase-encoding direction from DICOM 0018,1312: " + phase.name());
+            }
+        }
         ActionLimits limits = null;
         if (o.limits()) {
-            Double field = o.fieldTesla() != null ? o.fieldTesla() : number(ImageMetadata.tag(first, "0018,0087"));
-            if (field == null || !(field > 0)) {
-                throw new InputException("the published limits depend on field strength, which the image does not state "
-                        + "(DICOM 0018,0087): give it with --field T (or the dialog's field strength)");
+            Double field = o.fieldTesla();
+            if (field != null && !(field > 0)) {
+                throw new InputException("the field strength must be a positive number of tesla, was " + field);
+            }
+            if (field == null) {
+                field = ImageMetadata.number(first, "0018,0087");
+                if (field == null || !(field > 0)) {
+                    throw new InputException("the published limits depend on field strength, which the image does not "
+                            + "state (DICOM 0018,0087): give the field strength in tesla");
+                }
+                notes.add("field strength from DICOM 0018,0087: " + field + " T");
             }
             limits = ActionLimits.largePhantom(field);
         }
+        int plane = StackPlanes.hasTimeAxis(first) || repeats ? StackPlanes.index(first, o.slice(), 1) : o.slice();
         if (placement == null) {
             Phantom phantom = PhantomFinder.find(frames[0], w, h, PhantomLocator.threshold(frames[0]));
             placement = rasterize(QaRegions.place(phantom, w, h, o.fraction(), phase, pw, ph), w, h);
         }
         PhantomQa.Result r = PhantomQa.run(new PhantomQa.Input(frames, w, h, Double.NaN, o.fraction(), phase, pw, ph,
-                o.channels(), BackgroundValues.storage(first, StackPlanes.hasTimeAxis(first) || repeats
-                        ? StackPlanes.index(first, o.slice(), 1) : o.slice()), limits, placement));
+                o.channels(), BackgroundValues.storage(first, plane), limits, placement));
         String unit = ImagePlanes.valueUnit(first);
         String title = source != null ? source.getFileName().toString() : first.getTitle();
         ResultRow row = QaRows.row(title, o.slice(), unit, r);
 
         Map<String, String> values = new LinkedHashMap<>();
         values.put("recorded_utc", Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
-        values.put("acquired", acquired(first, source));
-        values.put("scanner", key(o.scanner(), first, "0008,1090", "0018,1000"));
-        values.put("coil", key(o.coil(), first, "0018,1250", null));
-        values.put("protocol", key(o.protocol(), first, "0018,1030", null));
+        String acquired = ImageMetadata.acquired(first);
+        if (acquired == null) {
+            notes.add("the image states no acquisition date (DICOM 0008,0022): the log records it as unknown and trend "
+                    + "plots place the session at the time it was recorded");
+        }
+        values.put("acquired", acquired == null ? "unknown" : acquired);
+        values.put("scanner", ImageMetadata.key(o.scanner(), first, "0008,1090", "0018,1000"));
+        values.put("coil", ImageMetadata.key(o.coil(), first, "0018,1250", null));
+        values.put("protocol", ImageMetadata.key(o.protocol(), first, "0018,1030", null));
         values.put("image", title);
+        values.put("data_id", dataId(frames));
         values.put("method", r.method());
         values.put("verdict", r.verdict().key());
         values.put("snr", num(r.snr()));
+        values.put("snr_ci95_low", num(r.snrCi95().low()));
+        values.put("snr_ci95_high", num(r.snrCi95().high()));
+        values.put("snr_magnitude", num(r.figures() == null ? Double.NaN : r.figures().magnitudeSnr()));
+        values.put("signal_amplitude", num(r.figures() == null ? Double.NaN : r.figures().amplitude()));
         values.put("sigma", num(r.sigma()));
         values.put("signal_mean", num(r.signalMean()));
         values.put("uniformity_piu", num(r.piu()));
         values.put("nema_nonuniformity_percent", num(r.nemaNonUniformity()));
         values.put("ghosting_percent", num(r.ghostingPercent()));
         List<String> flags = new ArrayList<>();
+        Map<String, QaLog.Baseline> baselines = new LinkedHashMap<>();
         List<QaLog.Entry> history = List.of();
-        QaLog.Entry entry;
         if (o.log() != null) {
-            List<List<String>> flagHolder = new ArrayList<>();
+            List<String> missing = QaLogFile.missingColumns(o.log());
+            if (!missing.isEmpty()) {
+                notes.add("the QA log was started by an earlier version and has no columns " + missing + ": they are not "
+                        + "recorded; start a new log to record them");
+            }
             ActionLimits lim = limits;
             history = QaLogFile.append(o.log(), hist -> {
-                List<String> f = flags(hist, values, o.baseline(), r, lim);
-                flagHolder.add(f);
+                flags.addAll(flags(hist, values, o.baseline(), r, lim, baselines));
                 Map<String, String> v = new LinkedHashMap<>(values);
-                v.put("flags", String.join("; ", f));
+                v.put("flags", String.join("; ", flags));
                 return new QaLog.Entry(v);
             });
-            flags.addAll(flagHolder.get(0));
         } else {
-            flags.addAll(flags(List.of(), values, o.baseline(), r, limits));
+            flags.addAll(flags(List.of(), values, o.baseline(), r, limits, baselines));
         }
         values.put("flags", String.join("; ", flags));
-        entry = new QaLog.Entry(values);
-        row.add("flags", "Flags", String.join("; ", flags));
-        Outcome out = new Outcome(r, row, flags, history, entry);
+        QaLog.Entry entry = new QaLog.Entry(values);
+        row.add("acquired", "Acquired", values.get("acquired"))
+                .add("data_id", null, values.get("data_id"))
+                .add("flags", "Flags", String.join("; ", flags));
+        for (Map.Entry<String, QaLog.Baseline> b : baselines.entrySet()) {
+            QaLog.Baseline bl = b.getValue();
+            String k = "baseline." + b.getKey() + ".";
+            row.add(k + "center", null, bl.center())
+                    .add(k + "warning_low", null, bl.usable() ? bl.warningLow() : null)
+                    .add(k + "warning_high", null, bl.usable() ? bl.warningHigh() : null)
+                    .add(k + "action_low", null, bl.usable() ? bl.actionLow() : null)
+                    .add(k + "action_high", null, bl.usable() ? bl.actionHigh() : null)
+                    .add(k + "sessions", null, bl.sessions());
+        }
+        Outcome out = new Outcome(r, row, flags, history, entry, baselines, notes);
         if (o.report() != null) {
             ImageWriter.writeText(report(out, frames[0], w, h, unit, o), o.report(), o.force());
         }
         if (o.trendDir() != null && o.log() != null) {
             for (Map.Entry<String, byte[]> t : trends(out, o).entrySet()) {
                 Path png = o.trendDir().resolve("trend_" + t.getKey() + ".png");
-                ImageWriter.checkWritable(png, true);
+                ImageWriter.checkWritable(png, o.force(), source);
                 ImageWriter.writeBytes(t.getValue(), png);
             }
         }
         return out;
+    }
+
+    /** Every output can be written (and none is an input) before anything is measured. */
+    private static void checkOutputs(Options o, Path source) throws InputException {
+        if (o.report() != null) {
+            ImageWriter.checkWritable(o.report(), o.force(), source);
+            ImageWriter.checkFolderWritable(o.report());
+        }
+        if (o.log() != null) {
+            if (source != null && ImageWriter.sameFile(o.log(), source)) {
+                throw new InputException("the QA log '" + o.log() + "' is the input image: give another file name");
+            }
+            ImageWriter.checkFolderWritable(o.log());
+        }
+        if (o.trendDir() != null) {
+            if (o.log() == null) {
+                throw new InputException("trend plots need a QA log to plot: give a log file as well");
+            }
+            if (!Files.isDirectory(o.trendDir())) {
+                throw new InputException("the folder for trend plots '" + o.trendDir() + "' does not exist: create it "
+                        + "first");
+            }
+            for (String metric : QaLog.METRICS.keySet()) {
+                ImageWriter.checkWritable(o.trendDir().resolve("trend_" + metric + ".png"), o.force(), source);
+            }
+            ImageWriter.checkFolderWritable(o.trendDir().resolve("x.png"));
+        }
+    }
+
+    /** A short fingerprint of the measured pixels: the same acquisition logged twice has the same one. */
+    static String dataId(float[][] frames) {
+        try {
+            java.security.MessageDigest md = java.security.MessageDigest.getInstance("SHA-256");
+            java.nio.ByteBuffer b = java.nio.ByteBuffer.allocate(4096 * 4);
+            for (float[] f : frames) {
+                for (int i = 0; i < f.length; i++) {
+                    if (!b.hasRemaining()) {
+                        md.update(b.array(), 0, b.position());
+                        b.clear();
+                    }
+                    b.putFloat(f[i]);
+                }
+            }
+            md.update(b.array(), 0, b.position());
+            return java.util.HexFormat.of().formatHex(md.digest(), 0, 8);
+        } catch (java.security.NoSuchAlgorithmException e) {
+            throw new IllegalStateException("SHA-256 is part of every Java runtime", e);
+        }
     }
 
     /**
@@ -217,12 +305,22 @@ public final class QaMeasure {
         return ImagePlanes.calibratedPixels(imp, StackPlanes.hasTimeAxis(imp) ? StackPlanes.index(imp, z, 1) : z);
     }
 
+    /** Duplicate, baseline and published-limit flags of a session; {@code baselines} receives each metric's. */
     static List<String> flags(List<QaLog.Entry> history, Map<String, String> values, int n, PhantomQa.Result r,
-                              ActionLimits limits) {
+                              ActionLimits limits, Map<String, QaLog.Baseline> baselines) {
         List<String> f = new ArrayList<>();
         QaLog.Entry probe = new QaLog.Entry(values);
+        QaLog.Entry dup = QaLog.duplicateOf(history, values.get("data_id"));
+        if (dup != null) {
+            f.add("duplicate: the same pixels as the session recorded " + dup.get("recorded_utc") + " (" + dup.get("image")
+                    + "); not used for the baseline");
+        }
         for (Map.Entry<String, String> m : QaLog.METRICS.entrySet()) {
+            if (!Double.isFinite(probe.number(m.getKey()))) {
+                continue;
+            }
             QaLog.Baseline b = QaLog.baseline(history, probe.key(), m.getKey(), n);
+            baselines.put(m.getKey(), b);
             String flag = QaLog.flag(b, probe.number(m.getKey()), m.getValue());
             if (!flag.isEmpty()) {
                 f.add(flag);
@@ -257,11 +355,36 @@ public final class QaMeasure {
             html.paragraph(f, "flag");
         }
         html.heading("Regions");
-        html.image("Slice with the regions used (signal yellow, background cyan, ghosting magenta, uniformity "
-                + "high green / low orange)", QaImages.png(QaImages.sliceWithRegions("regions", slice, w, h,
-                QaRows.regions(r))));
+        html.image("Slice with the regions used (" + QaImages.LEGEND + ")", QaImages.png(QaImages.sliceWithRegions(
+                "regions", slice, w, h, QaRows.regions(r))));
         html.heading("Results");
         html.resultTable(out.row(), "results");
+        html.heading("Limits");
+        List<List<String>> lim = new ArrayList<>();
+        if (r.limits() == null) {
+            lim.add(List.of("published action limits", "not applied: they were not asked for (they hold only for scans "
+                    + "made by the large-phantom QC procedure)"));
+        } else {
+            lim.add(List.of("PIU", String.format(Locale.ROOT, "at least %.1f%% at %.1f T: %s", r.limits().minimumPiu(),
+                    r.limits().fieldTesla(), Boolean.TRUE.equals(r.piuPasses()) ? "within" : "outside")));
+            lim.add(List.of("ghosting", Double.isFinite(r.ghostingPercent())
+                    ? String.format(Locale.ROOT, "at most %.1f%%: %s", r.limits().maximumGhostingPercent(),
+                            Boolean.TRUE.equals(r.ghostingPasses()) ? "within" : "outside")
+                    : "not applied: no room for ghosting regions on all four sides"));
+        }
+        html.table(List.of("Limit", "Applied"), lim);
+        if (!out.baselines().isEmpty()) {
+            html.heading("Baseline (site's own control limits)");
+            List<List<String>> rows = new ArrayList<>();
+            for (Map.Entry<String, QaLog.Baseline> e : out.baselines().entrySet()) {
+                QaLog.Baseline b = e.getValue();
+                rows.add(List.of(QaLog.METRICS.get(e.getKey()), b.sessions() + " of " + b.needed(),
+                        b.usable() ? Formats.sig(b.center(), 4) : "forming",
+                        b.usable() ? Formats.sig(b.warningLow(), 4) + " - " + Formats.sig(b.warningHigh(), 4) : "",
+                        b.usable() ? Formats.sig(b.actionLow(), 4) + " - " + Formats.sig(b.actionHigh(), 4) : ""));
+            }
+            html.table(List.of("Metric", "Sessions", "Centre", "Warning limits", "Action limits"), rows);
+        }
         if (r.backgroundDiagnosis() != null && r.backgroundValues().length > 1) {
             html.heading("Background noise");
             html.image("Background histogram with the fitted " + org.noisewise.diagnose.BackgroundCheck.modelName(
@@ -275,7 +398,7 @@ public final class QaMeasure {
             long sessions = out.history().stream().filter(e -> e.key().equals(key)).count() + 1;
             html.paragraph("Key: " + key + " - " + sessions + " session(s)", null);
             for (Map.Entry<String, byte[]> t : trends(out, o).entrySet()) {
-                html.image(QaLog.METRICS.get(t.getKey()) + " by session", t.getValue());
+                html.image(QaLog.METRICS.get(t.getKey()) + " against acquisition date", t.getValue());
             }
         }
         html.heading("Cautions");
@@ -287,68 +410,61 @@ public final class QaMeasure {
         return html.html();
     }
 
-    /** One trend plot (PNG) per metric, for this result's key, from the log's history plus this session. */
+    /**
+     * One trend plot (PNG) per metric this session has, for its key, from the log's history plus this
+     * session, against acquisition date (the recording time where the acquisition date is unknown).
+     */
     static Map<String, byte[]> trends(Outcome out, Options o) {
         List<QaLog.Entry> all = new ArrayList<>(out.history());
         all.add(out.entry());
         String key = out.entry().key();
         List<QaLog.Entry> mine = all.stream().filter(e -> e.key().equals(key)).toList();
+        double[] when = mine.stream().mapToDouble(QaMeasure::epochDays).toArray();
+        double origin = java.util.Arrays.stream(when).filter(Double::isFinite).min().orElse(0);
+        double[] days = java.util.Arrays.stream(when).map(d -> Double.isFinite(d) ? d - origin : 0).toArray();
+        String originText = java.time.LocalDate.ofEpochDay((long) Math.floor(origin)).toString();
         Map<String, byte[]> pngs = new LinkedHashMap<>();
         for (Map.Entry<String, String> m : QaLog.METRICS.entrySet()) {
+            if (!Double.isFinite(out.entry().number(m.getKey()))) {
+                continue;
+            }
             double[] v = mine.stream().mapToDouble(e -> e.number(m.getKey())).toArray();
             QaLog.Baseline b = QaLog.baseline(all, key, m.getKey(), o.baseline());
-            pngs.put(m.getKey(), QaImages.png(QaImages.trend(m.getValue(), v, b, out.result().limits(), m.getKey())
-                    .getImagePlus()));
+            boolean[] members = members(all, mine, key, m.getKey(), o.baseline());
+            pngs.put(m.getKey(), QaImages.png(QaImages.trend(m.getValue(), days, v, members, b,
+                    out.result().limits(), m.getKey(), originText).getImagePlus()));
         }
         return pngs;
     }
 
-    private static String key(String option, ImagePlus imp, String tag, String extraTag) {
-        if (option != null && !option.isBlank()) {
-            return option;
+    /** Which of {@code mine} are members of the metric's baseline. */
+    private static boolean[] members(List<QaLog.Entry> all, List<QaLog.Entry> mine, String key, String metric, int n) {
+        boolean[] out = new boolean[mine.size()];
+        List<QaLog.Entry> sofar = new ArrayList<>();
+        int members = 0;
+        for (int i = 0; i < mine.size(); i++) {
+            int before = QaLog.baseline(sofar, key, metric, n).sessions();
+            sofar.add(mine.get(i));
+            int after = QaLog.baseline(sofar, key, metric, n).sessions();
+            out[i] = after > before && members < n;
+            members = after;
         }
-        String v = ImageMetadata.tag(imp, tag);
-        String e = extraTag == null ? null : ImageMetadata.tag(imp, extraTag);
-        String s = v == null ? "" : v;
-        if (e != null) {
-            s = s.isEmpty() ? e : s + " " + e;
-        }
-        return s.isEmpty() ? "unknown" : s;
+        return out;
     }
 
-    private static String acquired(ImagePlus imp, Path source) {
-        String date = firstNonNull(ImageMetadata.tag(imp, "0008,0022"), ImageMetadata.tag(imp, "0008,0020"));
-        String time = firstNonNull(ImageMetadata.tag(imp, "0008,0032"), ImageMetadata.tag(imp, "0008,0030"));
-        if (date != null && date.length() == 8) {
-            String d = date.substring(0, 4) + "-" + date.substring(4, 6) + "-" + date.substring(6, 8);
-            if (time != null && time.length() >= 4) {
-                d += "T" + time.substring(0, 2) + ":" + time.substring(2, 4) + (time.length() >= 6 ? ":" + time.substring(4, 6) : "");
-            }
-            return d;
-        }
-        if (source != null && Files.exists(source)) {
+    /** An entry's acquisition time in days since 1970 (the recording time when unknown), NaN if neither parses. */
+    static double epochDays(QaLog.Entry e) {
+        for (String c : new String[] {"acquired", "recorded_utc"}) {
+            String t = e.get(c);
             try {
-                return Files.getLastModifiedTime(source).toInstant().truncatedTo(ChronoUnit.SECONDS).toString();
-            } catch (java.io.IOException e) {
-                return "";
+                java.time.LocalDateTime dt = t.endsWith("Z") ? java.time.LocalDateTime.ofInstant(
+                        Instant.parse(t), java.time.ZoneOffset.UTC) : java.time.LocalDateTime.parse(t);
+                return dt.toEpochSecond(java.time.ZoneOffset.UTC) / 86400.0;
+            } catch (java.time.DateTimeException ignored) {
+                // not a time: try the next column
             }
         }
-        return "";
-    }
-
-    private static String firstNonNull(String a, String b) {
-        return a != null && !a.isBlank() ? a : b != null && !b.isBlank() ? b : null;
-    }
-
-    private static Double number(String s) {
-        if (s == null) {
-            return null;
-        }
-        try {
-            return Double.parseDouble(s.trim());
-        } catch (NumberFormatException e) {
-            return null;
-        }
+        return Double.NaN;
     }
 
     private static String num(double v) {

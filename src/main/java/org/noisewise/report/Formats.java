@@ -185,6 +185,35 @@ public final class Formats {
         return sb.toString();
     }
 
+    /**
+     * A number to the digits its 95% interval makes meaningful: two significant digits of the
+     * interval's half-width decide the decimals of the value and of its bounds (keys {@code x},
+     * {@code x_ci95[0]}, {@code x_ci95[1]} in the row); numbers without an interval get 4 significant digits.
+     */
+    public static String meaningful(ResultRow row, String key, double v) {
+        if (!Double.isFinite(v)) {
+            return "";
+        }
+        String base = key.replaceFirst("_ci95\\[[01]]$", "");
+        Object lo = row.get(base + "_ci95[0]");
+        Object hi = row.get(base + "_ci95[1]");
+        if (lo instanceof Double l && hi instanceof Double h && Double.isFinite(l) && Double.isFinite(h) && h > l) {
+            double half = 0.5 * (h - l);
+            int decimals = (int) Math.max(0, Math.min(12, 1 - Math.floor(Math.log10(half))));
+            return String.format(Locale.ROOT, "%." + decimals + "f", v);
+        }
+        return sig(v, 4);
+    }
+
+    /** A number to {@code digits} significant digits, without trailing zeros; "" for NaN. */
+    public static String sig(double v, int digits) {
+        if (!Double.isFinite(v)) {
+            return "";
+        }
+        return String.format(Locale.ROOT, "%." + digits + "g", v).replaceFirst("(\\.\\d*?)0+(e|$)", "$1$2")
+                .replaceFirst("\\.(e|$)", "$1");
+    }
+
     /** A value as CSV text: numbers at full precision, blanks for missing values. */
     public static String csvValue(Object v) {
         if (v instanceof Double d) {

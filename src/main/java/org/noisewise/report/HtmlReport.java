@@ -32,20 +32,30 @@ public final class HtmlReport {
         return this;
     }
 
-    /** A two-column table of a result row's table cells (heading, value); warnings as a list. */
+    /**
+     * A two-column table of a result row's table cells (heading, value); warnings as a list. Numbers are
+     * shown to meaningful digits ({@link Formats#meaningful}); the full value is kept in the cell's
+     * {@code data-value} attribute.
+     */
     public HtmlReport resultTable(ResultRow row, String id) {
         body.append("<table class=\"kv\" id=\"").append(escape(id)).append("\">\n");
         for (ResultRow.Cell c : row.tableCells()) {
             body.append("<tr><th>").append(escape(c.heading())).append("</th><td data-key=\"").append(escape(c.key()))
-                    .append("\">");
+                    .append("\"");
+            if (c.value() instanceof Double d && Double.isFinite(d)) {
+                body.append(" data-value=\"").append(Formats.csvValue(d)).append("\"");
+            }
+            body.append(">");
             if (c.value() instanceof List<?> list) {
                 body.append(list.isEmpty() ? "none" : "<ul>");
                 for (Object o : list) {
                     body.append("<li>").append(escape(Formats.text(List.of(o)))).append("</li>");
                 }
                 body.append(list.isEmpty() ? "" : "</ul>");
+            } else if (c.value() instanceof Double d) {
+                body.append(escape(Formats.meaningful(row, c.key(), d)));
             } else {
-                body.append(escape(Formats.csvValue(c.value())));
+                body.append(escape(Formats.text(c.value())));
             }
             body.append("</td></tr>\n");
         }

@@ -61,6 +61,7 @@ class QaCommandTest {
         CliRunner.Result r = CliRunner.run("qa", A, B, "--limits");
         assertEquals(3, r.status());
         assertTrue(r.err().contains("--field"), r.err());
+        assertTrue(CliRunner.run("qa", A, B, "--limits", "--field", "-3").err().contains("positive"));
         CliRunner.Result ok = CliRunner.run("qa", A, B, "--limits", "--field", "3", "--json");
         JsonObject o = JsonParser.parseString(ok.out()).getAsJsonObject();
         assertEquals(82.0, o.getAsJsonObject("limits").get("piu_min").getAsDouble());
@@ -86,25 +87,37 @@ class QaCommandTest {
                     "an embedded image does not decode");
             images++;
         }
-        // regions, histogram and one trend plot per metric
-        assertEquals(2 + QaLog.METRICS.size(), images);
+        // regions, histogram and one trend plot per metric this session has
+        JsonObject o0 = JsonParser.parseString(r.out()).getAsJsonObject();
+        long metrics = QaLog.METRICS.keySet().stream().filter(k -> o0.has(k) && !o0.get(k).isJsonNull()).count();
+        assertEquals(2 + metrics, images);
         assertTrue(text.contains("medical physicist"), "the caution is missing");
         JsonObject o = JsonParser.parseString(r.out()).getAsJsonObject();
-        Matcher cell = Pattern.compile("<td data-key=\"([^\"]+)\">([^<]*)</td>").matcher(text);
+        // the full value in data-value equals the JSON; the shown value is it rounded to meaningful digits
+        Matcher cell = Pattern.compile("<td data-key=\"([^\"]+)\" data-value=\"([^\"]+)\">([^<]*)</td>")
+                .matcher(text);
         int compared = 0;
         while (cell.find()) {
             JsonElement e = lookup(o, cell.group(1));
             if (e != null && e.isJsonPrimitive() && e.getAsJsonPrimitive().isNumber()) {
-                assertEquals(e.getAsDouble(), Double.parseDouble(cell.group(2)), 0.0, cell.group(1));
+                double full = Double.parseDouble(cell.group(2));
+                assertEquals(e.getAsDouble(), full, 0.0, cell.group(1));
+                double shown = Double.parseDouble(cell.group(3));
+                assertEquals(full, shown, Math.abs(full) * 5e-4 + 0.05, cell.group(1));
+                assertTrue(cell.group(3).length() <= 12, "too many digits shown: " + cell.group(3));
                 compared++;
             }
         }
+        // the SNR is shown to the digits its interval supports: half-width about 0.5 gives 2 decimals
+        Matcher snr = Pattern.compile("data-key=\"snr\" data-value=\"[^\"]+\">(\\d+\\.(\\d+))<").matcher(text);
+        assertTrue(snr.find(), "no SNR cell");
+        assertEquals(2, snr.group(2).length(), snr.group(1));
         assertTrue(compared >= 15, "compared only " + compared + " numbers");
         assertEquals(4, QaLog.parse(Files.readString(log)).size());
         Path trends = Files.createDirectory(dir.resolve("trends"));
         assertEquals(0, CliRunner.run("qa", A, B, "--log", log.toString(), "--scanner", "Aster", "--trends",
                 trends.toString()).status());
-        for (String metric : QaLog.METRICS.keySet()) {
+        for (String metric : List.of("snr", "sigma", "uniformity_piu", "ghosting_percent")) {
             Path png = trends.resolve("trend_" + metric + ".png");
             assertNotNull(ImageIO.read(png.toFile()), "trend plot " + metric + " does not decode");
         }

@@ -100,7 +100,14 @@ public class BatchCommand implements Callable<Integer> {
         if (csv != null) {
             ImageWriter.checkWritable(csv, force);
         }
+        if (csv != null) {
+            ImageWriter.checkFolderWritable(csv);
+        }
         List<Item> items = items(folder, csv);
+        if (items.isEmpty()) {
+            throw new InputException("folder '" + folder + "' and its sub-folders hold no files to measure: give the "
+                    + "folder of the images");
+        }
         PrintWriter err = spec.commandLine().getErr();
         long start = System.nanoTime();
         List<ResultRow> rows = new ArrayList<>();

@@ -28,7 +28,7 @@ public class DifferenceCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Parameters(arity = "1..2", paramLabel = "IMAGE", description = "IMAGE_A IMAGE_B, or one STACK with --frames.")
+    @Parameters(arity = "1..*", paramLabel = "IMAGE", description = "IMAGE_A IMAGE_B, or one STACK with --frames.")
     List<Path> images;
 
     @Option(names = "--frames", paramLabel = "a,b", converter = FramePair.Converter.class,
@@ -55,6 +55,10 @@ public class DifferenceCommand implements Callable<Integer> {
         int channels = channelOption.get();
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "difference");
         Measurement m;
+        if (images.size() > 2) {
+            throw new InputException(images.size() + " images were given: the difference method compares two "
+                    + "acquisitions; give IMAGE_A IMAGE_B, or one stack with --frames a,b");
+        }
         if (images.size() == 2) {
             if (frames != null) {
                 throw new InputException("give either two images or one stack with --frames, not both");

@@ -26,7 +26,7 @@ public class QaCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Parameters(arity = "1..2", paramLabel = "IMAGE", description = "IMAGE [IMAGE2]: one scan, or two identical acquisitions.")
+    @Parameters(arity = "1..*", paramLabel = "IMAGE", description = "IMAGE [IMAGE2]: one scan, or two identical acquisitions.")
     List<Path> images;
 
     @Option(names = "--log", paramLabel = "qa.csv", description = "QA log to append this measurement to (created if missing).")
@@ -89,6 +89,10 @@ public class QaCommand implements Callable<Integer> {
         }
         if (baseline < 2) {
             throw new InputException("--baseline must be at least 2 sessions, was " + baseline);
+        }
+        if (images.size() > 2) {
+            throw new InputException(images.size() + " images were given: phantom QA takes one scan, or two identical "
+                    + "acquisitions for the difference method; run it once per session");
         }
         Integer channels = channelOption.get(true);
         ImagePlus first = ImageFiles.open(images.get(0));

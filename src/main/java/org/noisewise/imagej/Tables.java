@@ -18,18 +18,29 @@ public final class Tables {
         return rt;
     }
 
-    /** Appends rows to a table (columns that are new to it are added). */
+    /**
+     * Appends rows to a table (columns that are new to it are added). Each numeric column shows the
+     * digits its values' intervals make meaningful (the values themselves keep full precision).
+     */
     static void append(ResultsTable rt, List<ResultRow> rows) {
-        rt.setPrecision(6);
+        java.util.Map<String, Integer> digits = new java.util.HashMap<>();
         for (ResultRow row : rows) {
             rt.incrementCounter();
             for (ResultRow.Cell c : row.tableCells()) {
                 Object v = c.value();
                 if (v instanceof Number n && !(v instanceof Double d && !Double.isFinite(d))) {
                     rt.addValue(c.heading(), n.doubleValue());
+                    int k = v instanceof Double d ? Formats.decimals(row, c.key(), d) : 0;
+                    digits.merge(c.heading(), k, Math::max);
                 } else {
                     rt.addValue(c.heading(), Formats.text(v));
                 }
+            }
+        }
+        for (java.util.Map.Entry<String, Integer> e : digits.entrySet()) {
+            int col = rt.getColumnIndex(e.getKey());
+            if (col >= 0) {
+                rt.setDecimalPlaces(col, Math.min(9, e.getValue()));
             }
         }
     }

@@ -75,11 +75,13 @@ public final class DicomSeries {
         Prefs.fixedDicomScaling = true;
         List<ImagePlus> slices = new ArrayList<>();
         for (Path f : series.files()) {
+            FileChecks.requireDecodableDicom(f);
             ImagePlus imp = openSilently(f);
             if (imp == null) {
-                throw new InputException("cannot read DICOM file '" + f + "': it is damaged or compressed in a way "
-                        + "ImageJ cannot decode");
+                throw new InputException("cannot read DICOM file '" + f + "': ImageJ does not recognise its contents "
+                        + "(damaged, or not an image); remove it from the folder or export the series again");
             }
+            FileChecks.requireWhole(f, imp);
             ImagePlanes.requireGrayscale(imp);
             slices.add(imp);
         }

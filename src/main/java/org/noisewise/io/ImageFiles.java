@@ -42,11 +42,13 @@ public final class ImageFiles {
         if (!Files.isReadable(file)) {
             throw new InputException("cannot read '" + file + "': check its permissions");
         }
+        FileChecks.requireDecodableDicom(file);
         ImagePlus imp = DicomSeries.openSilently(file.toAbsolutePath());
         if (imp == null || imp.getWidth() == 0) {
             throw new InputException("cannot read '" + file + "' as an image: ImageJ does not recognise "
                     + "its format or the file is damaged; export it as TIFF or DICOM");
         }
+        FileChecks.requireWhole(file, imp);
         ImagePlanes.requireGrayscale(imp);
         return imp;
     }

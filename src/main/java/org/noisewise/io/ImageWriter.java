@@ -139,7 +139,7 @@ public final class ImageWriter {
     }
 
     /** The reason an I/O operation failed, in words. */
-    static String reason(IOException e) {
+    public static String reason(IOException e) {
         if (e instanceof java.nio.file.AccessDeniedException) {
             return "permission denied";
         }

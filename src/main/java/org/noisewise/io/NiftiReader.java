@@ -51,7 +51,8 @@ public final class NiftiReader {
                      ? new GZIPInputStream(raw) : raw) {
             bytes = in.readAllBytes();
         } catch (IOException e) {
-            throw bad(file, "it cannot be read (" + e.getMessage() + ")");
+            throw bad(file, "it cannot be read (" + (e instanceof java.io.EOFException
+                    ? "the compressed data end early: the file is empty or cut short" : ImageWriter.reason(e)) + ")");
         }
         if (bytes.length < HEADER + 4) {
             throw bad(file, "it is shorter than a NIfTI-1 header");

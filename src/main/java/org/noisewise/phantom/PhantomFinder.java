@@ -75,6 +75,11 @@ public final class PhantomFinder {
             throw new InputException(String.format(Locale.ROOT, "no phantom found above the threshold %.4g: check "
                     + "that the slice shows the phantom, or place the regions by hand", threshold));
         }
+        if (labels > 20 && sizes[best] < 0.02 * n) {
+            throw new InputException(String.format(Locale.ROOT, "no phantom found: %d small specks above the threshold "
+                    + "%.4g (the largest %d pixels) look like noise, not an object; check that the slice shows the "
+                    + "phantom, or place the regions by hand", labels, threshold, sizes[best]));
+        }
         if (second != 0 && sizes[second] >= MIN_PIXELS && sizes[second] > SECOND_OBJECT * sizes[best]) {
             throw new InputException(String.format(Locale.ROOT, "more than one object on the slice (%d and %d pixels): "
                     + "the QA expects one uniform phantom; crop the image or place the regions by hand",

@@ -133,7 +133,7 @@ public final class Formats {
             List<ResultRow.Cell> cells = rows.get(0).tableCells();
             int w = cells.stream().mapToInt(c -> c.heading().length()).max().orElse(0);
             for (ResultRow.Cell c : cells) {
-                String t = text(c.value());
+                String t = c.value() instanceof Double d ? meaningful(rows.get(0), c.key(), d) : text(c.value());
                 if (c.value() instanceof List<?> list) {
                     if (list.isEmpty()) {
                         t = "none";
@@ -151,14 +151,19 @@ public final class Formats {
         for (int i = 0; i < heads.size(); i++) {
             widths[i] = heads.get(i).length();
             for (ResultRow r : rows) {
-                widths[i] = Math.max(widths[i], text(r.tableCells().get(i).value()).length());
+                widths[i] = Math.max(widths[i], shown(r, r.tableCells().get(i)).length());
             }
         }
         appendLine(sb, heads, widths);
         for (ResultRow r : rows) {
-            appendLine(sb, r.tableCells().stream().map(c -> text(c.value())).toList(), widths);
+            appendLine(sb, r.tableCells().stream().map(c -> shown(r, c)).toList(), widths);
         }
         return sb.toString();
+    }
+
+    /** A cell as a table shows it: numbers to meaningful digits. */
+    static String shown(ResultRow row, ResultRow.Cell c) {
+        return c.value() instanceof Double d ? meaningful(row, c.key(), d) : text(c.value());
     }
 
     private static void appendLine(StringBuilder sb, List<String> values, int[] widths) {
@@ -203,6 +208,20 @@ public final class Formats {
             return String.format(Locale.ROOT, "%." + decimals + "f", v);
         }
         return sig(v, 4);
+    }
+
+    /** The decimals {@link #meaningful} shows for a value (at most 12). */
+    public static int decimals(ResultRow row, String key, double v) {
+        if (!Double.isFinite(v)) {
+            return 0;
+        }
+        String base = key.replaceFirst("_ci95\\[[01]]$", "");
+        Object lo = row.get(base + "_ci95[0]");
+        Object hi = row.get(base + "_ci95[1]");
+        if (lo instanceof Double l && hi instanceof Double h && Double.isFinite(l) && Double.isFinite(h) && h > l) {
+            return (int) Math.max(0, Math.min(12, 1 - Math.floor(Math.log10(0.5 * (h - l)))));
+        }
+        return v == 0 ? 0 : (int) Math.max(0, Math.min(12, 3 - Math.floor(Math.log10(Math.abs(v)))));
     }
 
     /** A number to {@code digits} significant digits, without trailing zeros; "" for NaN. */

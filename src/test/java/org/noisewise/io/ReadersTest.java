@@ -257,4 +257,56 @@ class ReadersTest {
         }
         assertEquals(Math.abs(slope), (double) imp.getProperty(NiftiReader.STEP_PROPERTY), 1e-9);
     }
+
+    /**
+     * Issue 12.1: a truncated DICOM is refused, never measured. pydicom's own MR_truncated.dcm (its
+     * pixel data cut short), and MR_small.dcm cut to 5,734 of its 9,830 bytes, both give a message
+     * that says so; the whole file still opens.
+     */
+    @Test
+    void truncatedDicomIsRefused() throws Exception {
+        InputException real = assertThrows(InputException.class, () -> ImageFiles.open(copy("MR_truncated.dcm")));
+        assertTrue(real.getMessage().contains("truncated"), real.getMessage());
+        Path cut = dir.resolve("cut.dcm");
+        Files.write(cut, java.util.Arrays.copyOf(resource("MR_small.dcm"), 5734));
+        InputException e = assertThrows(InputException.class, () -> ImageFiles.open(cut));
+        assertTrue(e.getMessage().contains("truncated") && e.getMessage().contains("5734"), e.getMessage());
+        Path series = Files.createDirectory(dir.resolve("series"));
+        Files.write(series.resolve("a.dcm"), resource("MR_small.dcm"));
+        Files.write(series.resolve("b.dcm"), java.util.Arrays.copyOf(resource("MR_small.dcm"), 5734));
+        assertTrue(assertThrows(InputException.class, () -> ImageFiles.open(series)).getMessage().contains("truncated"));
+        assertEquals(64, ImageFiles.open(copy("MR_small.dcm")).getWidth());
+    }
+
+    /**
+     * Issue 12.1: compressed DICOM (pydicom's RLE, JPEG 2000 and JPEG-LS copies of MR_small) is refused by
+     * name, saying how to decompress it, instead of ImageJ's stack trace.
+     */
+    @Test
+    void compressedDicomIsRefusedByName() throws Exception {
+        String[][] cases = {{"MR_small_RLE.dcm", "RLE"}, {"MR_small_jp2klossless.dcm", "JPEG 2000"},
+            {"MR_small_jpeg_ls_lossless.dcm", "JPEG-LS"}};
+        for (String[] c : cases) {
+            Path p = copy(c[0]);
+            InputException e = assertThrows(InputException.class, () -> ImageFiles.open(p));
+            assertTrue(e.getMessage().contains(c[1]) && e.getMessage().contains("decompress"), e.getMessage());
+        }
+    }
+
+    /** A TIFF cut short is refused; an empty or damaged gzip NIfTI says why (never "null"). */
+    @Test
+    void truncatedTiffAndEmptyGzipNifti() throws Exception {
+        ImagePlus imp = new ImagePlus("t", new ij.process.ShortProcessor(64, 64));
+        Path tif = dir.resolve("whole.tif");
+        new ij.io.FileSaver(imp).saveAsTiff(tif.toString());
+        byte[] whole = Files.readAllBytes(tif);
+        Path cut = dir.resolve("cut.tif");
+        Files.write(cut, java.util.Arrays.copyOf(whole, whole.length / 2));
+        InputException e = assertThrows(InputException.class, () -> ImageFiles.open(cut));
+        assertTrue(e.getMessage().contains("truncated"), e.getMessage());
+        Path gz = dir.resolve("empty.nii.gz");
+        Files.write(gz, new byte[0]);
+        InputException g = assertThrows(InputException.class, () -> ImageFiles.open(gz));
+        assertTrue(!g.getMessage().contains("null") && g.getMessage().contains("NIfTI"), g.getMessage());
+    }
 }

@@ -1,0 +1,137 @@
+package org.noisewise.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import ij.ImagePlus;
+import ij.ImageStack;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.attribute.FileTime;
+import java.util.List;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.noisewise.testing.TestImages;
+
+/**
+ * Issue 12: every argument is used or refused, every message says what is wrong and what to do, no
+ * input is ever replaced and no temporary file is left behind (one line on stderr, exit 3, no stack trace).
+ */
+class BadInputCliTest {
+
+    @TempDir
+    static Path dir;
+    static Path a;
+    static Path b;
+    static final String A = "sample-images/aster_disk_acq1.tif";
+    static final String B = "sample-images/aster_disk_acq2.tif";
+
+    @BeforeAll
+    static void images() {
+        a = TestImages.saveTiff(TestImages.phantom("a", 100, 4, 1, 1), dir, "a.tif");
+        b = TestImages.saveTiff(TestImages.phantom("b", 100, 4, 1, 2), dir, "b.tif");
+    }
+
+    private static String inputError(String... args) {
+        CliRunner.Result r = CliRunner.run(args);
+        assertEquals(3, r.status(), String.join(" ", args) + ": " + r.err() + r.out());
+        String err = r.err().strip();
+        String last = err.substring(err.lastIndexOf('\n') + 1);
+        assertTrue(last.startsWith("noisewise: error: "), err);
+        assertFalse(err.contains("Exception") || err.contains("\tat "), err);
+        return last;
+    }
+
+    @Test
+    void anInputIsNeverReplacedEvenWithForce() throws Exception {
+        byte[] before = Files.readAllBytes(a);
+        String m = inputError("correct", a.toString(), "--sigma", "4", "--out", a.toString(), "--force");
+        assertTrue(m.contains("is an input"), m);
+        String viaOtherName = inputError("correct", a.toString(), "--sigma", "4", "--out",
+                dir.resolve(".").resolve("a.tif").toString(), "--force");
+        assertTrue(viaOtherName.contains("is an input"), viaOtherName);
+        String map = inputError("check", a.toString(), "--background", "1,1,14,14", "--plot", a.toString(), "--force");
+        assertTrue(map.contains("is an input"), map);
+        assertTrue(java.util.Arrays.equals(before, Files.readAllBytes(a)), "the input was changed");
+    }
+
+    @Test
+    void everyArgumentIsUsedOrRefused() throws Exception {
+        assertTrue(inputError("qa", A, B, A).contains("3 images were given"));
+        assertTrue(inputError("difference", a.toString(), b.toString(), "missing.tif", "--signal", "38,38,20,20")
+                .contains("3 images were given"));
+        assertTrue(inputError("qa", "sample-images/aster_disk_1ch.tif", "--repeats").contains("single frame"));
+        Path empty = Files.createDirectory(dir.resolve("empty"));
+        assertTrue(inputError("batch", empty.toString(), "--method", "background", "--signal", "1,1,5,5",
+                "--background", "1,1,4,4").contains("no files to measure"));
+    }
+
+    @Test
+    void messagesSayWhatIsWrong() throws Exception {
+        assertTrue(inputError("qa", A, B, "--limits", "--field", "-3").contains("positive"));
+        assertTrue(inputError("qa", A, B, "--trends", dir.toString()).contains("--log"));
+        Path log = dir.resolve("m.csv");
+        assertTrue(inputError("qa", A, B, "--log", log.toString(), "--trends", dir.resolve("nowhere").toString())
+                .contains("does not exist"));
+        Path notAFolder = dir.resolve("plain.txt");
+        Files.writeString(notAFolder, "x");
+        String out = inputError("batch", dir.toString(), "--method", "background", "--signal", "1,1,5,5", "--background",
+                "1,1,4,4", "--out", notAFolder.resolve("r.csv").toString());
+        assertTrue(out.contains("does not exist"), out);
+        ImagePlus noise = new ImagePlus("noise", TestImages.phantom("n", 0, 5, 1, 9).getProcessor());
+        Path n = TestImages.saveTiff(noise, dir, "noise.tif");
+        assertTrue(inputError("qa", n.toString()).contains("no phantom found"));
+        ImageStack two = new ImageStack(TestImages.SIZE, TestImages.SIZE);
+        two.addSlice(TestImages.phantom("x", 60, 4, 1, 1).getProcessor());
+        two.addSlice(TestImages.phantom("y", 60, 4, 1, 2).getProcessor());
+        Path pair = TestImages.saveTiff(new ImagePlus("pair", two), dir, "pair.tif");
+        CliRunner.Result r = CliRunner.run("repeat", pair.toString(), "--signal", "38,38,20,20");
+        assertEquals(0, r.status(), r.err());
+        assertFalse(r.out().contains("Infinity"), r.out());
+        assertTrue(r.out().contains("no finite expectation"), r.out());
+    }
+
+    /** Trend plots obey --force like every other output (issue 15.9). */
+    @Test
+    void trendPlotsAreNotReplacedWithoutForce() throws Exception {
+        Path log = dir.resolve("t.csv");
+        Path trends = Files.createDirectory(dir.resolve("trends"));
+        assertEquals(0, CliRunner.run("qa", A, B, "--log", log.toString(), "--trends", trends.toString()).status());
+        byte[] before = Files.readAllBytes(trends.resolve("trend_snr.png"));
+        assertTrue(inputError("qa", A, B, "--log", log.toString(), "--trends", trends.toString()).contains("--force"));
+        assertTrue(java.util.Arrays.equals(before, Files.readAllBytes(trends.resolve("trend_snr.png"))));
+        assertEquals(1, org.noisewise.phantom.QaLog.parse(Files.readString(log)).size(), "a refused run logged a row");
+        assertEquals(0, CliRunner.run("qa", A, B, "--log", log.toString(), "--trends", trends.toString(), "--force")
+                .status());
+    }
+
+    /** An 8-bit image with a colour lookup table is measured on its stored values, with a note (issue 12.5). */
+    @Test
+    void colourLookupTableIsNoted() {
+        ImagePlus imp = TestImages.phantom("lut", 100, 4, 1, 4);
+        ImagePlus eight = new ImagePlus("lut8", imp.getProcessor().convertToByte(false));
+        eight.getProcessor().setColorModel(ij.process.LUT.createLutFromColor(java.awt.Color.red));
+        Path p = TestImages.saveTiff(eight, dir, "lut8.tif");
+        CliRunner.Result r = CliRunner.run("background", p.toString(), "--signal", "38,38,20,20", "--background",
+                "1,1,14,14");
+        assertEquals(0, r.status(), r.err());
+        assertTrue(r.err().contains("colour lookup table"), r.err());
+    }
+
+    /** A temporary file left by a killed earlier run is removed by the next write of the same file (issue 12.3). */
+    @Test
+    void staleTemporaryFilesAreRemoved() throws Exception {
+        Path out = dir.resolve("clean.tif");
+        Path stale = dir.resolve(".clean.tif.123456.part");
+        Files.writeString(stale, "left by a killed run");
+        Files.setLastModifiedTime(stale, FileTime.fromMillis(System.currentTimeMillis() - 86_400_000L));
+        CliRunner.Result r = CliRunner.run("correct", a.toString(), "--sigma", "4", "--out", out.toString());
+        assertEquals(0, r.status(), r.err());
+        try (var files = Files.list(dir)) {
+            List<String> parts = files.map(f -> f.getFileName().toString()).filter(f -> f.endsWith(".part")).toList();
+            assertEquals(List.of(), parts);
+        }
+    }
+}

@@ -13,16 +13,12 @@ import org.noisewise.math.ChiMoments;
  * variance of {@code M / sigma}. Then {@code sigma = s / sqrt(xi_L)} and
  * {@code A = sqrt(m^2 + (xi_L - 2L) sigma^2)}. When {@code r} is at or below the pure-noise ratio
  * {@code beta_L / sqrt(2L - beta_L^2)} (1.9130584 for L = 1) the data are consistent with no signal
- * and {@code theta = 0}. The fixed point is found with a bracketing (Brent) solver: plain
+ * and {@code theta = 0}. {@link CorrectedSnr#meanAndSd} applies it to region statistics. The fixed point is found with a bracketing (Brent) solver: plain
  * fixed-point iteration needs over a hundred steps near the lower bound.
  */
 public final class KoayBasser {
 
     private KoayBasser() {
-    }
-
-    /** Corrected amplitude and noise SD. */
-    public record Correction(double theta, double amplitude, double sigma, double xi) {
     }
 
     /** The lower bound of {@code r = mean / SD}: the ratio for pure noise. */
@@ -48,17 +44,5 @@ public final class KoayBasser {
     private static double g(double theta, double r, int channels) {
         double xi = ChiMoments.variance(channels, theta);
         return Math.sqrt(Math.max(0.0, xi * (1 + r * r) - 2.0 * channels)) - theta;
-    }
-
-    /** The full correction from the sample mean and SD of the magnitudes. */
-    public static Correction correct(double mean, double sd, int channels) {
-        if (!(sd > 0) || !(mean > 0)) {
-            throw new IllegalArgumentException("Koay-Basser correction needs a positive mean and SD");
-        }
-        double theta = theta(mean / sd, channels);
-        double xi = ChiMoments.variance(channels, theta);
-        double sigma = sd / Math.sqrt(xi);
-        double a2 = mean * mean + (xi - 2.0 * channels) * sigma * sigma;
-        return new Correction(theta, Math.sqrt(Math.max(0.0, a2)), sigma, xi);
     }
 }

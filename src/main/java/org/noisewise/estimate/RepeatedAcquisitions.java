@@ -31,8 +31,51 @@ public final class RepeatedAcquisitions {
     private RepeatedAcquisitions() {
     }
 
-    /** Mean, SD and SNR maps of one slice. */
-    public record Maps(int width, int height, int repeats, float[] mean, float[] sd, float[] snr) {
+    /**
+     * Mean, SD and SNR maps of one slice. The arrays are the maps themselves (not copies: they are as
+     * large as the image, and the maps own them); whoever receives the maps may hand them on, e.g. as
+     * the pixels of new images.
+     */
+    public static final class Maps {
+        private final int width;
+        private final int height;
+        private final int repeats;
+        private final float[] mean;
+        private final float[] sd;
+        private final float[] snr;
+
+        public Maps(int width, int height, int repeats, float[] mean, float[] sd, float[] snr) {
+            this.width = width;
+            this.height = height;
+            this.repeats = repeats;
+            this.mean = mean;
+            this.sd = sd;
+            this.snr = snr;
+        }
+
+        public int width() {
+            return width;
+        }
+
+        public int height() {
+            return height;
+        }
+
+        public int repeats() {
+            return repeats;
+        }
+
+        public float[] mean() {
+            return mean;
+        }
+
+        public float[] sd() {
+            return sd;
+        }
+
+        public float[] snr() {
+            return snr;
+        }
     }
 
     /**

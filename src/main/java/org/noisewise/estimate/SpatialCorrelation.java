@@ -52,7 +52,41 @@ public final class SpatialCorrelation {
     }
 
     /** A region as a raster: its bounding box in the plane and which box pixels belong to it. */
-    public record Patch(int x0, int y0, int w, int h, boolean[] in, int n) {
+    public static final class Patch {
+        private final int x0;
+        private final int y0;
+        private final int w;
+        private final int h;
+        private final boolean[] in;
+        private final int n;
+
+        Patch(int x0, int y0, int w, int h, boolean[] in, int n) {
+            this.x0 = x0;
+            this.y0 = y0;
+            this.w = w;
+            this.h = h;
+            this.in = in;
+            this.n = n;
+        }
+
+        public int w() {
+            return w;
+        }
+
+        public int h() {
+            return h;
+        }
+
+        /** The pixels of the region. */
+        public int n() {
+            return n;
+        }
+
+        /** Membership of the box's pixels (the patch's own array, not a copy). */
+        boolean[] in() {
+            return in;
+        }
+
         /** The patch of {@code region} in a plane {@code width} pixels wide. */
         public static Patch of(Region region, int width) {
             int[] idx = region.indices();

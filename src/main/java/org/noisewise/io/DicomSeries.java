@@ -76,7 +76,7 @@ public final class DicomSeries {
         List<ImagePlus> slices = new ArrayList<>();
         for (Path f : series.files()) {
             FileChecks.requireDecodableDicom(f);
-            ImagePlus imp = openSilently(f);
+            ImagePlus imp = read(f);
             if (imp == null) {
                 throw new InputException("cannot read DICOM file '" + f + "': ImageJ does not recognise its contents "
                         + "(damaged, or not an image); remove it from the folder or export the series again");
@@ -133,13 +133,27 @@ public final class DicomSeries {
 
     /** Opens any ImageJ-readable file with DICOM rescaling fixed and no dialogs; null when it cannot. */
     static ImagePlus openSilently(Path f) {
+        try {
+            return read(f);
+        } catch (InputException e) {
+            return null;
+        }
+    }
+
+    /**
+     * Opens any ImageJ-readable file with DICOM rescaling fixed and no dialogs: null when ImageJ does
+     * not recognise the file, an error naming the cause when its reader fails on it.
+     */
+    static ImagePlus read(Path f) throws InputException {
         Prefs.fixedDicomScaling = true;
         Opener o = new Opener();
         o.setSilentMode(true);
         try {
             return o.openImage(f.toString());
         } catch (RuntimeException e) {
-            return null;
+            throw new InputException("cannot read '" + f + "': ImageJ's reader failed on it (" + e.getClass()
+                    .getSimpleName() + (e.getMessage() == null ? "" : ": " + e.getMessage()) + "); the file is damaged or "
+                    + "in a form ImageJ does not support: export it again as TIFF or uncompressed DICOM");
         }
     }
 

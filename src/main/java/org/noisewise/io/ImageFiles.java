@@ -43,7 +43,7 @@ public final class ImageFiles {
             throw new InputException("cannot read '" + file + "': check its permissions");
         }
         FileChecks.requireDecodableDicom(file);
-        ImagePlus imp = DicomSeries.openSilently(file.toAbsolutePath());
+        ImagePlus imp = DicomSeries.read(file.toAbsolutePath());
         if (imp == null || imp.getWidth() == 0) {
             throw new InputException("cannot read '" + file + "' as an image: ImageJ does not recognise "
                     + "its format or the file is damaged; export it as TIFF or DICOM");

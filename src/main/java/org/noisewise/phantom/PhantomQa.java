@@ -50,6 +50,15 @@ public final class PhantomQa {
     public record Input(float[][] frames, int width, int height, double threshold, double fraction,
                         PhaseDirection phase, double pixelWidthMm, double pixelHeightMm, Integer channels,
                         BackgroundCheck.Storage storage, ActionLimits limits, QaRegions.Placement placement) {
+        public Input {
+            // the list of frames is copied; the planes are read only
+            frames = frames.clone();
+        }
+
+        @Override
+        public float[][] frames() {
+            return frames.clone();
+        }
     }
 
     /**

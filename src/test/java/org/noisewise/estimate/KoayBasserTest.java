@@ -1,6 +1,7 @@
 package org.noisewise.estimate;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -39,9 +40,18 @@ class KoayBasserTest {
         double sigma = 3.7;
         double mean = sigma * ChiMoments.mean(channels, theta);
         double sd = sigma * Math.sqrt(ChiMoments.variance(channels, theta));
-        KoayBasser.Correction c = KoayBasser.correct(mean, sd, channels);
-        assertEquals(theta, c.theta(), 1e-7);
+        CorrectedSnr c = CorrectedSnr.meanAndSd(mean, 0.01, sd, 0.01, channels);
+        assertEquals(theta, c.snr(), 1e-7);
         assertEquals(sigma, c.sigma(), 1e-7);
         assertEquals(theta * sigma, c.amplitude(), 1e-6);
+        assertTrue(c.snrCi95().contains(theta) && c.sigmaCi95().contains(sigma));
+    }
+
+    /** A non-positive mean (issue 15.8) is no error: the region is consistent with no signal (SNR 0). */
+    @Test
+    void nonPositiveMeanMeansNoSignal() {
+        CorrectedSnr c = CorrectedSnr.meanAndSd(-3.0, 0.5, 2.0, 0.05, 1);
+        assertEquals(0.0, c.snr(), 0.0);
+        assertTrue(c.warnings().stream().anyMatch(w -> w.code().equals("near_noise_floor")), c.warnings().toString());
     }
 }

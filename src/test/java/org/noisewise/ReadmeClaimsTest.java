@@ -1,0 +1,207 @@
+package org.noisewise;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotNull;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.google.gson.JsonObject;
+import com.google.gson.JsonParser;
+import ij.ImagePlus;
+import ij.process.FloatProcessor;
+import java.io.InputStream;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Locale;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.noisewise.cli.NoisewiseCli;
+import org.noisewise.diagnose.PhaseDirection;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Region;
+import org.noisewise.io.ImageFiles;
+import org.noisewise.io.ImageMetadata;
+import org.noisewise.io.RepeatedMaps;
+import org.noisewise.io.RoleNames;
+import org.noisewise.measure.BackgroundMeasure;
+import org.noisewise.measure.Progress;
+import org.noisewise.measure.QaMeasure;
+import org.noisewise.measure.Roles;
+import org.noisewise.sample.Phantoms;
+import org.noisewise.testing.DicomEdit;
+
+/** Each claim the README makes, checked so that the README cannot drift from what the code does (issue 15.3). */
+class ReadmeClaimsTest {
+
+    @TempDir
+    Path dir;
+
+    private record Run(int status, String out, String err) {
+    }
+
+    private static Run cli(String... args) {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        int s = NoisewiseCli.execute(args, new PrintWriter(out), new PrintWriter(err));
+        return new Run(s, out.toString(), err.toString());
+    }
+
+    private static String readme() throws Exception {
+        return Files.readString(Path.of("README.md"));
+    }
+
+    private static final String[] WORKED = {"background", "sample-images/aster_disk_1ch.tif", "--signal", "49,49,30,30",
+        "--background", "2,2,24,24", "--background", "102,2,24,24", "--background", "2,102,24,24", "--background",
+        "102,102,24,24"};
+
+    /** The worked example: its output lines are in the README as printed, and so is the hand method's error. */
+    @Test
+    void workedExampleNumbers() throws Exception {
+        Run r = cli(WORKED);
+        assertEquals(0, r.status(), r.err());
+        String readme = readme();
+        for (String line : r.out().lines().limit(16).toList()) {
+            assertTrue(readme.contains(line.stripTrailing()), "README lacks the output line: " + line);
+        }
+        List<String> json = List.of(WORKED);
+        Run j = cli(java.util.stream.Stream.concat(json.stream(), java.util.stream.Stream.of("--json"))
+                .toArray(String[]::new));
+        JsonObject o = JsonParser.parseString(j.out()).getAsJsonObject();
+        double hand = o.get("signal_mean").getAsDouble() / o.get("background_sd").getAsDouble();
+        double truth = 24.0;
+        assertTrue(readme.contains(String.format(Locale.ROOT, "gives %.1f on the same regions", hand)), "hand " + hand);
+        assertTrue(readme.contains(String.format(Locale.ROOT, "%.0f%% too high", 100 * (hand / truth - 1))));
+    }
+
+    /** "On the bundled 24-repeat sample at a true SNR of 2, the raw mean is 14% high and the corrected one within 0.5%." */
+    @Test
+    void repeatsSampleStatement() throws Exception {
+        ImagePlus imp = ImageFiles.open(Path.of("sample-images/aster_disk_repeats.tif"));
+        var m = RepeatedMaps.compute(imp, 1);
+        var r = org.noisewise.estimate.RepeatedAcquisitions.summarize(m, RepeatedMaps.frames(imp, 1),
+                Region.rectangle("signal", 49, 49, 30, 30, 128, 128), 1);
+        assertEquals(14, Math.round(100 * (r.signalMean() / 20 - 1)));
+        assertTrue(Math.abs(r.figures().amplitude() / 20 - 1) < 0.005, "corrected " + r.figures().amplitude());
+        assertTrue(readme().contains("the raw mean is 14% high and the corrected one within 0.5%"));
+    }
+
+    /** Phase direction, field strength, scanner, coil, protocol and acquisition time come from DICOM. */
+    @Test
+    void acquisitionFactsFromDicom() throws Exception {
+        byte[] d;
+        try (InputStream in = getClass().getResourceAsStream("/opendata/MR_small.dcm")) {
+            d = in.readAllBytes();
+        }
+        d = DicomEdit.set(d, 0x0018, 0x0087, "DS", "3");
+        d = DicomEdit.set(d, 0x0018, 0x1312, "CS", "ROW");
+        Path f = dir.resolve("edited.dcm");
+        Files.write(f, d);
+        ImagePlus imp = ImageFiles.open(f);
+        assertEquals(PhaseDirection.ROW, ImageMetadata.phaseDirection(imp));
+        assertEquals(3.0, ImageMetadata.number(imp, "0018,0087"));
+        var m = BackgroundMeasure.run(imp, "edited", new Roles(List.of(Region.rectangle("s", 20, 20, 20, 20, 64, 64)),
+                List.of(Region.rectangle("b", 0, 0, 10, 10, 64, 64))), new BackgroundMeasure.Options(1, null, null),
+                new int[] {1}, null, Progress.NONE);
+        assertTrue(m.notes().contains("phase-encoding direction from DICOM 0018,1312: ROW"), m.notes().toString());
+        assertEquals("row", m.rows().get(0).get("phase"));
+
+        // the QA reads the rest through ImageJ's header text, as for any DICOM file
+        float[] px = Phantoms.disk(128, 128, 64, 64, 40, 120, 5, 1, 3);
+        ImagePlus qa = new ImagePlus("phantom", new FloatProcessor(128, 128, px));
+        qa.setProperty("Info", "0008,0022  Acquisition Date: 20261105\n0008,0032  Acquisition Time: 093015\n"
+                + "0008,1090  Manufacturer's Model Name: Aster\n0018,1000  Device Serial Number: 42\n"
+                + "0018,1250  Receive Coil Name: HEAD\n0018,1030  Protocol Name: weekly\n0018,0087  Magnetic Field Strength: 3\n");
+        Path log = dir.resolve("qa.csv");
+        QaMeasure.Outcome out = QaMeasure.run(qa, null, null, new QaMeasure.Options(0.75, null, 1, null, true, null,
+                null, null, 5, log, null, false, 1), null);
+        assertEquals(82.0, out.result().limits().minimumPiu(), "3 T limits from 0018,0087");
+        var row = org.noisewise.phantom.QaLog.parse(Files.readString(log)).get(0);
+        assertEquals("2026-11-05T09:30:15", row.get("acquired"));
+        assertEquals("Aster 42", row.get("scanner"));
+        assertEquals("HEAD", row.get("coil"));
+        assertEquals("weekly", row.get("protocol"));
+    }
+
+    /** A folder's DICOM files are grouped by 0020,000E and ordered by 0020,0013, then by position 0020,0032. */
+    @Test
+    void seriesGroupingAndOrder() throws Exception {
+        byte[] d;
+        try (InputStream in = getClass().getResourceAsStream("/opendata/MR_small.dcm")) {
+            d = in.readAllBytes();
+        }
+        Path folder = Files.createDirectory(dir.resolve("series"));
+        double[] z = {20, 0, 10};
+        for (int i = 0; i < 3; i++) {
+            byte[] e = DicomEdit.set(d, 0x0020, 0x0013, "IS", "1");
+            e = DicomEdit.set(e, 0x0020, 0x0032, "DS", "0\\0\\" + (int) z[i]);
+            e = DicomEdit.set(e, 0x0028, 0x1052, "DS", String.valueOf((int) z[i] * 100));
+            e = DicomEdit.set(e, 0x0028, 0x1053, "DS", "1");
+            Files.write(folder.resolve("f" + i + ".dcm"), e);
+        }
+        ImagePlus imp = ImageFiles.open(folder);
+        float[] ref = org.noisewise.io.ImagePlanes.calibratedPixels(ImageFiles.open(folder.resolve("f1.dcm")), 1);
+        for (int n = 1; n <= 3; n++) {
+            assertEquals(ref[5] + 1000 * (n - 1), org.noisewise.io.ImagePlanes.calibratedPixels(imp, n)[5], 1e-3,
+                    "slice " + n + " in order of position");
+        }
+        Files.write(folder.resolve("other.dcm"), DicomEdit.set(d, 0x0020, 0x000E, "UI", "1.2.3.4.5"));
+        InputException e = org.junit.jupiter.api.Assertions.assertThrows(InputException.class,
+                () -> ImageFiles.open(folder));
+        assertTrue(e.getMessage().contains("2 DICOM series"), e.getMessage());
+    }
+
+    /** batch: --csv is --out, progress and a summary line go to stderr. */
+    @Test
+    void batchCsvAliasProgressAndSummary() throws Exception {
+        Path folder = Files.createDirectory(dir.resolve("b"));
+        Files.copy(Path.of("sample-images/aster_disk_1ch.tif"), folder.resolve("a.tif"));
+        Files.copy(Path.of("sample-images/aster_disk_8ch.tif".replace("aster", "bramble")), folder.resolve("b.tif"));
+        Path csv = dir.resolve("r.csv");
+        Run r = cli("batch", folder.toString(), "--method", "background", "--signal", "49,49,30,30", "--background",
+                "2,2,24,24", "--csv", csv.toString());
+        assertEquals(0, r.status(), r.err());
+        assertEquals(3, Files.readAllLines(csv).size());
+        assertTrue(r.err().contains("batch: 1/2 a.tif") && r.err().contains("batch: 2/2 b.tif"), r.err());
+        assertTrue(r.err().contains("batch: 2 item(s), 2 measured, 0 failed, 2 row(s)"), r.err());
+    }
+
+    /** A phantom filling the field of view leaves no room for ghost regions: the no_room warning. */
+    @Test
+    void noRoomWarning() throws Exception {
+        float[] px = Phantoms.disk(128, 128, 64, 56, 50, 120, 5, 1, 4);
+        ImagePlus imp = new ImagePlus("big", new FloatProcessor(128, 128, px));
+        QaMeasure.Outcome out = QaMeasure.run(imp, null, null, new QaMeasure.Options(0.75, null, 1, null, false, null,
+                null, null, 5, null, null, false, 1), null);
+        assertTrue(out.result().warnings().stream().anyMatch(w -> w.code().equals("no_room")));
+    }
+
+    /** Role names are not case-sensitive. */
+    @Test
+    void roleNamesIgnoreCase() {
+        assertEquals(RoleNames.SIGNAL, RoleNames.fromName("SIGNAL region"));
+        assertEquals(RoleNames.SIGNAL, RoleNames.fromName("Sig"));
+        assertEquals(RoleNames.BACKGROUND, RoleNames.fromName("BG-left"));
+        assertEquals(RoleNames.BACKGROUND, RoleNames.fromName("Air 2"));
+        assertEquals(RoleNames.BACKGROUND, RoleNames.fromName("Noise top"));
+        assertEquals(RoleNames.IGNORE, RoleNames.fromName("marker"));
+    }
+
+    /** The uniformity window is 10 mm square whatever the calibration unit: cm, micrometres, inches. */
+    @Test
+    void windowSizeFromPixelSizeInAnyUnit() throws Exception {
+        Object[][] units = {{"cm", 0.2}, {"um", 2000.0}, {"\u00B5m", 2000.0}, {"inch", 2.0 / 25.4}, {"mm", 2.0}};
+        for (Object[] u : units) {
+            float[] px = Phantoms.disk(128, 128, 64, 64, 40, 120, 5, 1, 5);
+            ImagePlus imp = new ImagePlus("cal", new FloatProcessor(128, 128, px));
+            imp.getCalibration().setUnit((String) u[0]);
+            imp.getCalibration().pixelWidth = (Double) u[1];
+            imp.getCalibration().pixelHeight = (Double) u[1];
+            QaMeasure.Outcome out = QaMeasure.run(imp, null, null, new QaMeasure.Options(0.75, null, 1, null, false,
+                    null, null, null, 5, null, null, false, 1), null);
+            assertEquals(5, out.result().windows().w(), "unit " + u[0]);
+            assertNotNull(out.row());
+        }
+    }
+}

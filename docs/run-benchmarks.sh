@@ -3,4 +3,8 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 mvn -B -q test-compile dependency:build-classpath -Dmdep.outputFile=target/cp.txt -Dmdep.includeScope=test
-java -cp "target/classes:target/test-classes:$(cat target/cp.txt)" org.noisewise.bench.RepeatedMapsBenchmark
+CP="target/classes:target/test-classes:$(cat target/cp.txt)"
+java -Xmx3g -cp "$CP" org.noisewise.bench.RepeatedMapsBenchmark
+java -Xmx3g -cp "$CP" org.noisewise.bench.RicianCorrectionBenchmark
+mvn -B -q package -DskipTests
+java -Xmx3g -cp "$CP" org.noisewise.bench.LargeImageBenchmark target/noisewise.jar

@@ -1,5 +1,9 @@
 package org.noisewise.estimate;
 
+import java.util.concurrent.ForkJoinPool;
+import java.util.concurrent.ForkJoinWorkerThread;
+import java.util.concurrent.TimeUnit;
+import java.util.function.IntConsumer;
 import java.util.stream.IntStream;
 
 /**
@@ -11,7 +15,32 @@ public final class Blocks {
     /** Elements per block: large enough to amortise the task, small enough to balance the cores. */
     static final int SIZE = 1 << 16;
 
+    private static final int CORES = Runtime.getRuntime().availableProcessors();
+
+    /**
+     * Noisewise's own workers (daemon threads, one per core, kept for ten idle minutes): unlike the
+     * common pool's, they keep their per-thread scratch between calls, so a kernel that reuses scratch
+     * allocates only its results.
+     */
+    private static final ForkJoinPool POOL = new ForkJoinPool(CORES, pool -> {
+        ForkJoinWorkerThread t = ForkJoinPool.defaultForkJoinWorkerThreadFactory.newThread(pool);
+        t.setDaemon(true);
+        t.setName("noisewise-worker-" + t.getPoolIndex());
+        return t;
+    }, null, false, CORES, Math.max(256, CORES), 1, null, 10, TimeUnit.MINUTES);
+
     private Blocks() {
+    }
+
+    /** Runs {@code task(0 .. tasks - 1)} on Noisewise's workers and waits for all of them. */
+    public static void tasks(int tasks, IntConsumer task) {
+        if (tasks <= 1 || CORES == 1) {
+            for (int t = 0; t < tasks; t++) {
+                task.accept(t);
+            }
+            return;
+        }
+        POOL.submit(() -> IntStream.range(0, tasks).parallel().forEach(task)).join();
     }
 
     /** The body of one block, {@code [from, to)}. */

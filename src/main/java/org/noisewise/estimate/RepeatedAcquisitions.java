@@ -5,7 +5,6 @@ import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.DoubleConsumer;
-import java.util.stream.IntStream;
 import org.apache.commons.math3.special.Gamma;
 
 /**
@@ -79,12 +78,46 @@ public final class RepeatedAcquisitions {
     }
 
     /**
-     * Computes the maps.
+     * Computes the maps from calibrated float frames.
      *
      * @param frames   K frames of {@code width * height} calibrated values
      * @param progress receives the fraction done (0..1), from any thread; may be {@code null}
      */
     public static Maps maps(float[][] frames, int width, int height, DoubleConsumer progress) throws InputException {
+        return maps(frames, width, height, 0.0, 1.0, null, progress);
+    }
+
+    /** Pixels per tile: the tile's sums and shifts stay in the first-level cache while the frames stream past. */
+    static final int TILE = 8192;
+    private static final ThreadLocal<Scratch> SCRATCH = ThreadLocal.withInitial(Scratch::new);
+
+    /** Per-thread sums of one tile: whole numbers for integer data (exact, faster), doubles otherwise. */
+    private static final class Scratch {
+        final double[] base = new double[TILE];
+        final double[] s1 = new double[TILE];
+        final double[] s2 = new double[TILE];
+        final int[] ibase = new int[TILE];
+        final int[] is1 = new int[TILE];
+        final long[] ls2 = new long[TILE];
+    }
+
+    /**
+     * Computes the maps straight from stored frames, without converting them: each frame is a
+     * {@code byte[]} (unsigned 8-bit), {@code short[]} (unsigned 16-bit) or {@code float[]} array of
+     * stored values, and {@code calibrated = offset + slope * stored} (or {@code table[stored]} for 8-
+     * and 16-bit data with a non-linear calibration table).
+     *
+     * <p>One streaming pass per tile of {@value #TILE} pixels: for each frame, the deviation from the
+     * tile's first frame {@code d = x - x_0} is added to a sum and a sum of squares. For integer data
+     * both sums are exact (whole numbers below 2^53), and the shift removes the cancellation of
+     * {@code E[x^2] - E[x]^2} for any data; then {@code mean = x_0 + sum d / K} and
+     * {@code var = (sum d^2 - (sum d)^2 / K) / (K - 1)}, with the linear calibration applied to the
+     * results ({@code mean * slope + offset}, {@code sd * |slope|}). Tiles run in parallel on
+     * Noisewise's workers, whose scratch sums are kept per thread, so a call allocates only its three
+     * output maps.
+     */
+    public static Maps maps(Object[] frames, int width, int height, double offset, double slope, float[] table,
+                            DoubleConsumer progress) throws InputException {
         int k = frames.length;
         if (k < 2) {
             throw new InputException("the repeated-acquisition method needs at least 2 repeats of the slice; got "
@@ -92,41 +125,151 @@ public final class RepeatedAcquisitions {
         }
         int size = width * height;
         for (int f = 0; f < k; f++) {
-            if (frames[f].length != size) {
-                throw new InputException("repeat " + (f + 1) + " has " + frames[f].length + " pixels, not "
-                        + size + ": every repeat must have the same matrix");
+            int len = frames[f] instanceof float[] a ? a.length : frames[f] instanceof short[] b ? b.length
+                    : frames[f] instanceof byte[] c ? c.length : -1;
+            if (len < 0) {
+                throw new IllegalArgumentException("frame " + (f + 1) + " is not byte[], short[] or float[]");
+            }
+            if (len != size) {
+                throw new InputException("repeat " + (f + 1) + " has " + len + " pixels, not " + size
+                        + ": every repeat must have the same matrix");
             }
         }
         float[] mean = new float[size];
         float[] sd = new float[size];
         float[] snr = new float[size];
-        AtomicInteger rowsDone = new AtomicInteger();
-        int step = Math.max(1, height / 50);
-        IntStream.range(0, height).parallel().forEach(y -> {
-            int start = y * width;
-            for (int i = start; i < start + width; i++) {
-                double m = 0;
-                double m2 = 0;
-                for (int f = 0; f < k; f++) {
-                    double x = frames[f][i];
-                    double delta = x - m;
-                    m += delta / (f + 1);
-                    m2 += delta * (x - m);
+        int tiles = (size + TILE - 1) / TILE;
+        AtomicInteger done = new AtomicInteger();
+        int step = Math.max(1, tiles / 50);
+        double scale = Math.abs(slope);
+        // integer data without a table: whole-number sums (sum d fits an int for fewer than 32768 frames)
+        boolean whole = table == null && !(frames[0] instanceof float[]) && k < 32768;
+        Blocks.tasks(tiles, t -> {
+            int from = t * TILE;
+            int n = Math.min(TILE, size - from);
+            Scratch sc = SCRATCH.get();
+            double[] base = sc.base;
+            double[] s1 = sc.s1;
+            double[] s2 = sc.s2;
+            if (whole) {
+                wholeSums(frames, from, n, sc);
+            } else {
+                load(frames[0], table, from, n, base);
+                java.util.Arrays.fill(s1, 0, n, 0.0);
+                java.util.Arrays.fill(s2, 0, n, 0.0);
+                for (int f = 1; f < k; f++) {
+                    accumulate(frames[f], table, from, n, base, s1, s2);
                 }
-                double s = Math.sqrt(m2 / (k - 1));
-                mean[i] = (float) m;
-                sd[i] = (float) s;
-                snr[i] = s > 0 ? (float) (m / s) : Float.NaN;
             }
-            int done = rowsDone.incrementAndGet();
-            if (progress != null && done % step == 0) {
-                progress.accept((double) done / height);
+            for (int j = 0; j < n; j++) {
+                double m = base[j] + s1[j] / k;
+                double var = Math.max(0.0, (s2[j] - s1[j] * s1[j] / k) / (k - 1));
+                double sdev = Math.sqrt(var) * (table == null ? scale : 1.0);
+                double calibrated = table == null ? offset + slope * m : m;
+                mean[from + j] = (float) calibrated;
+                sd[from + j] = (float) sdev;
+                snr[from + j] = sdev > 0 ? (float) (calibrated / sdev) : Float.NaN;
+            }
+            int d = done.incrementAndGet();
+            if (progress != null && d % step == 0) {
+                progress.accept((double) d / tiles);
             }
         });
         if (progress != null) {
             progress.accept(1.0);
         }
         return new Maps(width, height, k, mean, sd, snr);
+    }
+
+    /** Exact whole-number sums of deviations of 8- or 16-bit frames, left as doubles in the scratch. */
+    private static void wholeSums(Object[] frames, int from, int n, Scratch sc) {
+        int[] b = sc.ibase;
+        int[] s1 = sc.is1;
+        long[] s2 = sc.ls2;
+        if (frames[0] instanceof short[] first) {
+            for (int j = 0; j < n; j++) {
+                b[j] = first[from + j] & 0xffff;
+            }
+        } else {
+            byte[] first = (byte[]) frames[0];
+            for (int j = 0; j < n; j++) {
+                b[j] = first[from + j] & 0xff;
+            }
+        }
+        java.util.Arrays.fill(s1, 0, n, 0);
+        java.util.Arrays.fill(s2, 0, n, 0L);
+        for (int f = 1; f < frames.length; f++) {
+            if (frames[f] instanceof short[] a) {
+                for (int j = 0; j < n; j++) {
+                    int d = (a[from + j] & 0xffff) - b[j];
+                    s1[j] += d;
+                    s2[j] += (long) d * d;
+                }
+            } else {
+                byte[] a = (byte[]) frames[f];
+                for (int j = 0; j < n; j++) {
+                    int d = (a[from + j] & 0xff) - b[j];
+                    s1[j] += d;
+                    s2[j] += (long) d * d;
+                }
+            }
+        }
+        for (int j = 0; j < n; j++) {
+            sc.base[j] = b[j];
+            sc.s1[j] = s1[j];
+            sc.s2[j] = s2[j];
+        }
+    }
+
+    /** The stored (or table-calibrated) values of one tile of a frame. */
+    private static void load(Object frame, float[] table, int from, int n, double[] out) {
+        if (frame instanceof short[] a) {
+            for (int j = 0; j < n; j++) {
+                int raw = a[from + j] & 0xffff;
+                out[j] = table == null ? raw : table[raw];
+            }
+        } else if (frame instanceof byte[] a) {
+            for (int j = 0; j < n; j++) {
+                int raw = a[from + j] & 0xff;
+                out[j] = table == null ? raw : table[raw];
+            }
+        } else {
+            float[] a = (float[]) frame;
+            for (int j = 0; j < n; j++) {
+                out[j] = a[from + j];
+            }
+        }
+    }
+
+    /** Adds one frame's deviations from the tile's first frame to the sums. */
+    private static void accumulate(Object frame, float[] table, int from, int n, double[] base, double[] s1,
+                                   double[] s2) {
+        if (frame instanceof short[] a && table == null) {
+            for (int j = 0; j < n; j++) {
+                double d = (a[from + j] & 0xffff) - base[j];
+                s1[j] += d;
+                s2[j] += d * d;
+            }
+        } else if (frame instanceof float[] a) {
+            for (int j = 0; j < n; j++) {
+                double d = a[from + j] - base[j];
+                s1[j] += d;
+                s2[j] += d * d;
+            }
+        } else if (frame instanceof byte[] a && table == null) {
+            for (int j = 0; j < n; j++) {
+                double d = (a[from + j] & 0xff) - base[j];
+                s1[j] += d;
+                s2[j] += d * d;
+            }
+        } else {
+            for (int j = 0; j < n; j++) {
+                int raw = frame instanceof short[] sa ? sa[from + j] & 0xffff : ((byte[]) frame)[from + j] & 0xff;
+                double d = table[raw] - base[j];
+                s1[j] += d;
+                s2[j] += d * d;
+            }
+        }
     }
 
     /** {@code b(K)}: how many times too high the mean of a per-pixel SNR map is, for K repeats. */

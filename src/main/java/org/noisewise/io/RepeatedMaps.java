@@ -1,6 +1,7 @@
 package org.noisewise.io;
 
 import ij.ImagePlus;
+import ij.measure.Calibration;
 import java.util.function.DoubleConsumer;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.RepeatedAcquisitions;
@@ -20,11 +21,33 @@ public final class RepeatedMaps {
         return compute(imp, z, null);
     }
 
-    /** The maps of z slice {@code z}, reporting progress (0..1) to {@code progress} (may be null). */
+    /**
+     * The maps of z slice {@code z}, reporting progress (0..1) to {@code progress} (may be null). The
+     * stack's own 8-, 16- or 32-bit arrays are read as they are (no converted copies); the image's
+     * calibration is applied to the results when it is linear (DICOM rescale), per stored value otherwise.
+     */
     public static RepeatedAcquisitions.Maps compute(ImagePlus imp, int z, DoubleConsumer progress)
             throws InputException {
         ImagePlanes.requireGrayscale(imp);
-        return RepeatedAcquisitions.maps(StackPlanes.repeats(imp, z), imp.getWidth(), imp.getHeight(), progress);
+        int k = StackPlanes.repeatCount(imp);
+        Object[] frames = new Object[k];
+        for (int t = 1; t <= k; t++) {
+            frames[t - 1] = imp.getStack().getPixels(StackPlanes.index(imp, z, t));
+        }
+        double offset = 0.0;
+        double slope = 1.0;
+        float[] table = null;
+        Calibration cal = imp.getCalibration();
+        if (imp.getBitDepth() != 32 && cal.calibrated()) {
+            double[] c = cal.getCoefficients();
+            if (cal.getFunction() == Calibration.STRAIGHT_LINE && c != null && c.length >= 2) {
+                offset = c[0];
+                slope = c[1];
+            } else {
+                table = cal.getCTable();
+            }
+        }
+        return RepeatedAcquisitions.maps(frames, imp.getWidth(), imp.getHeight(), offset, slope, table, progress);
     }
 
     /** The repeats of z slice {@code z}, read as calibrated planes when asked for. */

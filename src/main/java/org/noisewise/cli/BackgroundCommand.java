@@ -67,10 +67,12 @@ public class BackgroundCommand implements Callable<Integer> {
         Integer channels = channelOption.get(true);
         SigmaEstimator est = parseEstimator(estimator);
         PhaseDirection dir = phase == null ? null : parsePhase(phase);
+        Progress progress = progressOption.sink(spec.commandLine().getErr(), "background");
+        progress.report(0.0, "reading " + image.getFileName());
         ImagePlus imp = ImageFiles.open(image);
         ImagePlus other = second == null ? null : ImageFiles.open(second);
         Measurement m = measure(imp, image.getFileName().toString(), regions, channels, est, dir, slice, other,
-                progressOption.sink(spec.commandLine().getErr(), "background"));
+                progress);
         Output.notes(spec.commandLine().getErr(), "background", m.notes());
         Output.print(spec.commandLine().getOut(), m.rows(), json);
         return 0;

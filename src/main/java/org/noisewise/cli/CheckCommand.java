@@ -4,6 +4,7 @@ import ij.ImagePlus;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.noisewise.estimate.InputException;
+import org.noisewise.measure.Progress;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.io.ImageWriter;
 import org.noisewise.measure.CheckMeasure;
@@ -61,12 +62,14 @@ public class CheckCommand implements Callable<Integer> {
         if (plot != null) {
             ImageWriter.checkWritable(plot, force, image);
         }
+        Progress progress = progressOption.sink(spec.commandLine().getErr(), "check");
+        progress.report(0.0, "reading " + image.getFileName());
         ImagePlus imp = ImageFiles.open(image);
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         RegionOptions.require(roles, false, false, true);
         Measurement m = CheckMeasure.run(imp, image.getFileName().toString(), roles,
                 new CheckMeasure.Options(channels, phase == null ? null : BackgroundCommand.parsePhase(phase)),
-                Slices.select(imp, slice), progressOption.sink(spec.commandLine().getErr(), "check"));
+                Slices.select(imp, slice), progress);
         if (plot != null) {
             ImageWriter.savePng(m.plots().get(0).getImagePlus(), plot, force, image);
         }

@@ -4,6 +4,7 @@ import ij.ImagePlus;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.noisewise.estimate.InputException;
+import org.noisewise.measure.Progress;
 import org.noisewise.estimate.RicianCorrection;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.io.ImageWriter;
@@ -73,6 +74,8 @@ public class CorrectCommand implements Callable<Integer> {
             throw new InputException(e.getMessage());
         }
         ImageWriter.checkWritable(out, force, image);
+        Progress progress = progressOption.sink(spec.commandLine().getErr(), "correct");
+        progress.report(0.0, "reading " + image.getFileName());
         ImagePlus imp = ImageFiles.open(image);
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         if (sigma == 0 && roles.background().isEmpty()) {
@@ -80,7 +83,7 @@ public class CorrectCommand implements Callable<Integer> {
         }
         Measurement result = CorrectionMeasure.run(imp, image.getFileName().toString(), roles,
                 new CorrectionMeasure.Options(sigma, channels, m, window),
-                progressOption.sink(spec.commandLine().getErr(), "correct"));
+                progress);
         ImageWriter.saveTiff(result.images().get(0), out, force, image);
         Output.notes(spec.commandLine().getErr(), "correct", result.notes());
         spec.commandLine().getOut().println("wrote " + out + " (" + m.label()

@@ -2,13 +2,14 @@ package org.noisewise.cli;
 
 import java.io.PrintWriter;
 import org.noisewise.estimate.InputException;
+import org.noisewise.measure.Memory;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
 /**
  * The command-line face: {@code java -jar target/noisewise.jar COMMAND ...}. Exit status 0 on
- * success, 2 for a usage error, 3 for an input error (one line on stderr saying what is wrong and
- * what to do), 1 for an internal error.
+ * success, 2 for a usage error, 3 for an input error or a full Java heap (one line on stderr saying
+ * what is wrong and what to do), 1 for an internal error.
  */
 @Command(name = "noisewise", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = {"Corrected noise and SNR measurement for MR magnitude images.",
@@ -41,6 +42,9 @@ public class NoisewiseCli implements Runnable {
         cl.setOut(out);
         cl.setErr(err);
         cl.setExecutionExceptionHandler((ex, commandLine, parseResult) -> {
+            if (ex.getCause() instanceof OutOfMemoryError) {
+                return outOfMemory(err);
+            }
             if (ex instanceof InputException) {
                 err.println("noisewise: error: " + ex.getMessage());
                 err.flush();
@@ -56,6 +60,18 @@ public class NoisewiseCli implements Runnable {
             err.flush();
             return CommandLine.ExitCode.USAGE;
         });
-        return cl.execute(args);
+        try {
+            return cl.execute(args);
+        } catch (OutOfMemoryError e) {
+            return outOfMemory(err);
+        }
+    }
+
+    /** One line for a full heap (what to do: more heap, or less data at once); exit status 3. */
+    static int outOfMemory(PrintWriter err) {
+        err.println("noisewise: error: out of memory (" + Memory.heapText() + "): give Java more, e.g. "
+                + "java -Xmx8g -jar noisewise.jar ..., or measure less at once (--slice N, a cropped image)");
+        err.flush();
+        return EXIT_INPUT;
     }
 }

@@ -11,8 +11,10 @@ import picocli.CommandLine.Option;
  */
 public class ProgressOption {
 
-    /** Lines at most this often. */
+    /** Lines at most this often while the status stays the same. */
     static final long INTERVAL_NANOS = 1_000_000_000L;
+    /** A new stage's status is shown unless the last line is younger than this. */
+    static final long STAGE_NANOS = 200_000_000L;
 
     @Option(names = "--progress", description = "Report progress on stderr (default: when it is a terminal).")
     boolean progress;
@@ -24,12 +26,15 @@ public class ProgressOption {
         }
         long start = System.nanoTime();
         long[] last = {start - INTERVAL_NANOS};
+        String[] shown = {null};
         return (fraction, status) -> {
             long now = System.nanoTime();
-            if (now - last[0] < INTERVAL_NANOS && fraction < 1.0) {
+            boolean newStage = status != null && !status.isEmpty() && !status.equals(shown[0]);
+            if (fraction < 1.0 && now - last[0] < (newStage ? STAGE_NANOS : INTERVAL_NANOS)) {
                 return;
             }
             last[0] = now;
+            shown[0] = status;
             err.printf(Locale.ROOT, "%s: %3.0f%% %s (%.1f s)%n", command, 100 * fraction,
                     status == null ? "" : status, (now - start) / 1e9);
             err.flush();

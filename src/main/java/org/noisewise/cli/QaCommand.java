@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
 import org.noisewise.estimate.InputException;
+import org.noisewise.measure.Progress;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.measure.QaMeasure;
 import picocli.CommandLine.Command;
@@ -75,6 +76,9 @@ public class QaCommand implements Callable<Integer> {
     @Option(names = "--slice", paramLabel = "N", defaultValue = "1", description = "1-based z slice (default: ${DEFAULT-VALUE}).")
     int slice;
 
+    @Mixin
+    ProgressOption progressOption;
+
     @Option(names = "--repeats", description = "IMAGE is a plain stack of repeated acquisitions of one slice (measured by "
             + "the repeated-acquisition method), not a stack of z slices. A hyperstack's time frames are always repeats.")
     boolean repeats;
@@ -95,6 +99,8 @@ public class QaCommand implements Callable<Integer> {
                     + "acquisitions for the difference method; run it once per session");
         }
         Integer channels = channelOption.get(true);
+        Progress progress = progressOption.sink(spec.commandLine().getErr(), "qa");
+        progress.report(0.0, "reading " + images.get(0).getFileName());
         ImagePlus first = ImageFiles.open(images.get(0));
         ImagePlus second = images.size() > 1 ? ImageFiles.open(images.get(1)) : null;
         if (trends != null && log == null) {
@@ -106,7 +112,8 @@ public class QaCommand implements Callable<Integer> {
         }
         QaMeasure.Options o = new QaMeasure.Options(fraction, phase == null ? null : BackgroundCommand.parsePhase(phase),
                 channels, field, limits, scanner, coil, protocol, baseline, log, report, force, slice, trends, repeats);
-        QaMeasure.Outcome out = QaMeasure.run(first, second, null, o, images.get(0));
+        QaMeasure.Outcome out = QaMeasure.run(first, second, null, o, images.get(0),
+                progress);
         Output.notes(spec.commandLine().getErr(), "qa", out.notes());
         Output.print(spec.commandLine().getOut(), List.of(out.row()), json);
         if (report != null) {

@@ -58,6 +58,8 @@ public class RepeatCommand implements Callable<Integer> {
     @Override
     public Integer call() throws InputException {
         int channels = channelOption.get();
+        Progress progress = progressOption.sink(spec.commandLine().getErr(), "repeat");
+        progress.report(0.0, "reading " + image.getFileName());
         ImagePlus imp = ImageFiles.open(image);
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         if (roles.signal().isEmpty() && map == null) {
@@ -70,7 +72,7 @@ public class RepeatCommand implements Callable<Integer> {
             }
         }
         Measurement m = RepeatedMeasure.run(imp, image.getFileName().toString(), roles, channels, zs, map != null,
-                progressOption.sink(spec.commandLine().getErr(), "repeat"));
+                progress);
         for (int i = 0; i < m.images().size(); i++) {
             ImageWriter.saveTiff(m.images().get(i), mapPath(zs[i], zs.length), force, image);
         }

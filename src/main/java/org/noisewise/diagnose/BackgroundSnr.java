@@ -1,11 +1,9 @@
 package org.noisewise.diagnose;
 
 import java.util.ArrayList;
-import java.util.HashSet;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
-import java.util.Set;
 import org.noisewise.estimate.BackgroundNoise;
 import org.noisewise.estimate.CorrectedSnr;
 import org.noisewise.estimate.InputException;
@@ -130,7 +128,7 @@ public final class BackgroundSnr {
         Signal sig = Signal.of(pixels, width, signal);
         BackgroundNoise noise = BackgroundNoise.measure(pixels, width, background);
         List<Warning> warnings = new ArrayList<>();
-        checkOverlap(signal, background, warnings);
+        checkOverlap(signal, background, pixels.length, warnings);
         BackgroundDiagnostics.Diagnosis diag = BackgroundDiagnostics.diagnose(pixels, width, height, signal, background,
                 noise, new BackgroundDiagnostics.Options(options.channels(), options.phase(), options.storage()));
         int channels = diag.channels();
@@ -161,15 +159,15 @@ public final class BackgroundSnr {
         return new BackgroundSnrResult(channels, options.estimator(), est, sig, noise.stats(), figures, diag, warnings);
     }
 
-    private static void checkOverlap(Region signal, List<Region> background, List<Warning> warnings) {
-        Set<Integer> sig = new HashSet<>();
+    private static void checkOverlap(Region signal, List<Region> background, int pixels, List<Warning> warnings) {
+        java.util.BitSet sig = new java.util.BitSet(pixels);
         for (int i : signal.indices()) {
-            sig.add(i);
+            sig.set(i);
         }
         for (Region b : background) {
             int shared = 0;
             for (int i : b.indices()) {
-                if (sig.contains(i)) {
+                if (sig.get(i)) {
                     shared++;
                 }
             }

@@ -1,6 +1,5 @@
 package org.noisewise.estimate;
 
-import java.util.Arrays;
 import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
@@ -44,9 +43,7 @@ public final class BackgroundNoise {
     public static BackgroundNoise measure(float[] pixels, int width, List<Region> background) throws InputException {
         double[] values = Region.pooledMagnitudes(pixels, background);
         SampleStats stats = SampleStats.of(values);
-        double[] sorted = values.clone();
-        Arrays.sort(sorted);
-        double median = median(sorted);
+        double median = OrderStatistics.median(values);
         double meanSquare = stats.sumSquares() / values.length;
         double below = 0;
         double dev2 = 0;
@@ -96,11 +93,6 @@ public final class BackgroundNoise {
         }
         return new BackgroundNoise(values.clone(), SampleStats.of(values),
                 SpatialCorrelation.Result.white(values.length), inflation);
-    }
-
-    private static double median(double[] sorted) {
-        int n = sorted.length;
-        return n % 2 == 1 ? sorted[n / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
     }
 
     /** The pooled magnitudes (a copy). */

@@ -1,6 +1,5 @@
 package org.noisewise.estimate;
 
-import java.util.Arrays;
 import java.util.Collections;
 import java.util.EnumMap;
 import java.util.Map;
@@ -141,9 +140,7 @@ public final class BackgroundSigma {
 
     static SigmaEstimate fromMedian(double[] background, int channels, double nEff) {
         int n = background.length;
-        double[] sorted = background.clone();
-        Arrays.sort(sorted);
-        double median = n % 2 == 1 ? sorted[n / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
+        double median = OrderStatistics.median(background);
         double unit = chiMedian(channels);
         // Order-statistic interval: B = #values below the median ~ Binomial(m, 1/2); ranks l and
         // m - l + 1 (1-based) cover the median with probability >= 95%. With correlated pixels the
@@ -161,7 +158,8 @@ public final class BackgroundSigma {
         double scale = (double) n / m;
         int lo = clampRank((int) Math.floor((lowRank - 0.5) * scale + 0.5), n);
         int hi = clampRank((int) Math.ceil((highRank - 0.5) * scale + 0.5), n);
-        Interval ci = new Interval(sorted[lo - 1] / unit, sorted[hi - 1] / unit);
+        double[] bounds = OrderStatistics.select(background, lo - 1, hi - 1);
+        Interval ci = new Interval(bounds[0] / unit, bounds[1] / unit);
         return new SigmaEstimate(SigmaEstimator.MEDIAN, median / unit, ci, n);
     }
 

@@ -93,6 +93,8 @@ public class BackgroundCheckCommand implements PlugIn {
             IJ.error(TITLE, e.getMessage());
         } catch (RuntimeException e) {
             Errors.unexpected(TITLE, e);
+        } catch (OutOfMemoryError e) {
+            Errors.outOfMemory(TITLE);
         }
     }
 

@@ -104,6 +104,8 @@ public class BackgroundSnrCommand implements PlugIn {
             IJ.error(TITLE, e.getMessage());
         } catch (RuntimeException e) {
             Errors.unexpected(TITLE, e);
+        } catch (OutOfMemoryError e) {
+            Errors.outOfMemory(TITLE);
         }
     }
 

@@ -87,6 +87,8 @@ public class DifferenceSnrCommand implements PlugIn {
             IJ.error(TITLE, e.getMessage());
         } catch (RuntimeException e) {
             Errors.unexpected(TITLE, e);
+        } catch (OutOfMemoryError e) {
+            Errors.outOfMemory(TITLE);
         }
     }
 

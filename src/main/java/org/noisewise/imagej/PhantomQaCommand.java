@@ -128,6 +128,8 @@ public class PhantomQaCommand implements PlugIn {
             IJ.error(TITLE, e.getMessage());
         } catch (RuntimeException e) {
             Errors.unexpected(TITLE, e);
+        } catch (OutOfMemoryError e) {
+            Errors.outOfMemory(TITLE);
         }
     }
 
@@ -135,7 +137,7 @@ public class PhantomQaCommand implements PlugIn {
     public static QaMeasure.Outcome process(ImagePlus imp, ImagePlus second, QaRegions.Placement placement,
                                             QaMeasure.Options o) throws InputException {
         Face.checkImage(imp, TITLE);
-        return QaMeasure.run(imp, second, placement, o, DialogFields.sourceFile(imp));
+        return QaMeasure.run(imp, second, placement, o, DialogFields.sourceFile(imp), ImageJProgress.INSTANCE);
     }
 
     /**

@@ -83,6 +83,8 @@ public class RepeatedSnrCommand implements PlugIn {
             IJ.error(TITLE, e.getMessage());
         } catch (RuntimeException e) {
             Errors.unexpected(TITLE, e);
+        } catch (OutOfMemoryError e) {
+            Errors.outOfMemory(TITLE);
         }
     }
 

@@ -6,6 +6,7 @@ import ij.gui.Overlay;
 import ij.gui.Plot;
 import ij.gui.Roi;
 import ij.gui.TextRoi;
+import ij.plugin.Binner;
 import ij.process.FloatProcessor;
 import ij.process.ImageProcessor;
 import java.awt.Color;
@@ -60,12 +61,24 @@ public final class QaImages {
      */
     public static ImagePlus sliceWithRegions(String title, float[] pixels, int width, int height, List<PlacedRegion> regions) {
         int side = Math.max(width, height);
-        double scale = side < 384 ? Math.ceil(384.0 / side) : side > MAX_SIDE ? (double) MAX_SIDE / side : 1.0;
-        int sw = Math.max(1, (int) Math.round(width * scale));
-        int sh = Math.max(1, (int) Math.round(height * scale));
-        ImageProcessor ip = new FloatProcessor(width, height, pixels.clone());
-        ip.setInterpolationMethod(scale >= 1 ? ImageProcessor.NONE : ImageProcessor.BILINEAR);
-        ip = scale == 1.0 ? ip : ip.resize(sw, sh, scale < 1);
+        ImageProcessor source = new FloatProcessor(width, height, pixels);
+        ImageProcessor ip;
+        double scale;
+        if (side > MAX_SIDE) {
+            // reduced by a whole factor, each output pixel the mean of f x f (ImageJ's Binner; the input is not changed)
+            int f = (side + MAX_SIDE - 1) / MAX_SIDE;
+            ip = new Binner().shrink(source, f, f, Binner.AVERAGE);
+            scale = 1.0 / f;
+        } else if (side < 384) {
+            scale = Math.ceil(384.0 / side);
+            source.setInterpolationMethod(ImageProcessor.NONE);
+            ip = source.resize((int) Math.round(width * scale), (int) Math.round(height * scale));
+        } else {
+            scale = 1.0;
+            ip = source.duplicate();
+        }
+        int sw = ip.getWidth();
+        int sh = ip.getHeight();
         ip.resetMinAndMax();
         ImagePlus imp = new ImagePlus(title, ip.convertToByte(true));
         Overlay ov = new Overlay();

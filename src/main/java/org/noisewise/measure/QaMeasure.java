@@ -97,7 +97,14 @@ public final class QaMeasure {
      */
     public static Outcome run(ImagePlus first, ImagePlus second, QaRegions.Placement placement, Options o, Path source)
             throws InputException {
+        return run(first, second, placement, o, source, Progress.NONE);
+    }
+
+    /** The same, reporting each stage to {@code progress}. */
+    public static Outcome run(ImagePlus first, ImagePlus second, QaRegions.Placement placement, Options o, Path source,
+                              Progress progress) throws InputException {
         ImagePlanes.requireGrayscale(first);
+        progress.report(0.0, "Phantom QA: reading the slice");
         checkOutputs(o, source);
         List<String> notes = new ArrayList<>(Measurement.imageNotes(first, second));
         int w = first.getWidth();
@@ -148,11 +155,17 @@ public final class QaMeasure {
         }
         int plane = StackPlanes.hasTimeAxis(first) || repeats ? StackPlanes.index(first, o.slice(), 1) : o.slice();
         if (placement == null) {
+            progress.report(0.1, "Phantom QA: finding the phantom");
             Phantom phantom = PhantomFinder.find(frames[0], w, h, PhantomLocator.threshold(frames[0]));
+            progress.report(0.25, "Phantom QA: placing the regions");
             placement = rasterize(QaRegions.place(phantom, w, h, o.fraction(), phase, pw, ph), w, h);
         }
+        progress.report(0.35, "Phantom QA: SNR and noise check");
+        Progress stages = progress.part(0.35, 0.85);
         PhantomQa.Result r = PhantomQa.run(new PhantomQa.Input(frames, w, h, Double.NaN, o.fraction(), phase, pw, ph,
-                o.channels(), BackgroundValues.storage(first, plane), limits, placement));
+                o.channels(), BackgroundValues.storage(first, plane), limits, placement),
+                f -> stages.report(f, f < 0.75 ? "Phantom QA: uniformity windows" : "Phantom QA: non-uniformity"));
+        progress.report(0.85, "Phantom QA: log and report");
         String unit = ImagePlanes.valueUnit(first);
         String title = source != null ? source.getFileName().toString() : first.getTitle();
         ResultRow row = QaRows.row(title, o.slice(), unit, r);
@@ -227,6 +240,7 @@ public final class QaMeasure {
                 ImageWriter.writeBytes(t.getValue(), png);
             }
         }
+        progress.report(1.0, "");
         return out;
     }
 

@@ -1,6 +1,5 @@
 package org.noisewise.phantom;
 
-import java.util.ArrayDeque;
 import java.util.Locale;
 import org.noisewise.estimate.InputException;
 
@@ -29,7 +28,7 @@ public final class PhantomFinder {
         int[] label = new int[n];
         int[] sizes = new int[16];
         int labels = 0;
-        ArrayDeque<Integer> queue = new ArrayDeque<>();
+        Fill fill = new Fill(width, height);
         for (int i = 0; i < n; i++) {
             if (label[i] != 0 || !(pixels[i] > threshold)) {
                 continue;
@@ -38,28 +37,8 @@ public final class PhantomFinder {
             if (labels >= sizes.length) {
                 sizes = java.util.Arrays.copyOf(sizes, sizes.length * 2);
             }
-            label[i] = labels;
-            queue.add(i);
-            int size = 0;
-            while (!queue.isEmpty()) {
-                int p = queue.poll();
-                size++;
-                int x = p % width;
-                int y = p / width;
-                if (x > 0) {
-                    visit(p - 1, pixels, threshold, label, labels, queue);
-                }
-                if (x < width - 1) {
-                    visit(p + 1, pixels, threshold, label, labels, queue);
-                }
-                if (y > 0) {
-                    visit(p - width, pixels, threshold, label, labels, queue);
-                }
-                if (y < height - 1) {
-                    visit(p + width, pixels, threshold, label, labels, queue);
-                }
-            }
-            sizes[labels] = size;
+            int l = labels;
+            sizes[labels] = fill.run(i, q -> label[q] == 0 && pixels[q] > threshold, q -> label[q] = l);
         }
         int best = 0;
         int second = 0;
@@ -140,43 +119,105 @@ public final class PhantomFinder {
                 tilt, elongation);
     }
 
-    private static void visit(int q, float[] pixels, double threshold, int[] label, int l, ArrayDeque<Integer> queue) {
-        if (label[q] == 0 && pixels[q] > threshold) {
-            label[q] = l;
-            queue.add(q);
-        }
-    }
-
     /** The component with holes filled: everything not reachable from the border through non-component pixels. */
     private static boolean[] fillHoles(int[] label, int keep, int width, int height) {
         int n = width * height;
         boolean[] outside = new boolean[n];
-        ArrayDeque<Integer> queue = new ArrayDeque<>();
-        for (int i = 0; i < n; i++) {
-            int x = i % width;
-            int y = i / width;
-            if ((x == 0 || y == 0 || x == width - 1 || y == height - 1) && label[i] != keep) {
-                outside[i] = true;
-                queue.add(i);
-            }
+        Fill fill = new Fill(width, height);
+        Fill.Test open = q -> !outside[q] && label[q] != keep;
+        Fill.Mark mark = q -> outside[q] = true;
+        for (int x = 0; x < width; x++) {
+            fill.run(x, open, mark);
+            fill.run((height - 1) * width + x, open, mark);
         }
-        while (!queue.isEmpty()) {
-            int p = queue.poll();
-            int x = p % width;
-            int y = p / width;
-            int[] nb = {x > 0 ? p - 1 : -1, x < width - 1 ? p + 1 : -1, y > 0 ? p - width : -1,
-                y < height - 1 ? p + width : -1};
-            for (int q : nb) {
-                if (q >= 0 && !outside[q] && label[q] != keep) {
-                    outside[q] = true;
-                    queue.add(q);
-                }
-            }
+        for (int y = 0; y < height; y++) {
+            fill.run(y * width, open, mark);
+            fill.run(y * width + width - 1, open, mark);
         }
         boolean[] mask = new boolean[n];
         for (int i = 0; i < n; i++) {
             mask[i] = !outside[i];
         }
         return mask;
+    }
+
+    /**
+     * 4-connected scanline flood fill: each popped seed is extended to its whole run along the row,
+     * the run marked, and one seed pushed per open run in the rows above and below (a stack of pixel
+     * indices, no boxing; memory grows with the outline, not the area).
+     */
+    private static final class Fill {
+        interface Test {
+            boolean open(int index);
+        }
+
+        interface Mark {
+            void mark(int index);
+        }
+
+        private final int width;
+        private final int height;
+        private int[] stack = new int[1024];
+        private int size;
+
+        Fill(int width, int height) {
+            this.width = width;
+            this.height = height;
+        }
+
+        /** Fills from {@code seed}; the number of pixels marked (0 when the seed is not open). */
+        int run(int seed, Test test, Mark mark) {
+            if (!test.open(seed)) {
+                return 0;
+            }
+            int count = 0;
+            size = 0;
+            push(seed);
+            while (size > 0) {
+                int p = stack[--size];
+                if (!test.open(p)) {
+                    continue;
+                }
+                int y = p / width;
+                int row = y * width;
+                int xl = p - row;
+                int xr = xl;
+                while (xl > 0 && test.open(row + xl - 1)) {
+                    xl--;
+                }
+                while (xr < width - 1 && test.open(row + xr + 1)) {
+                    xr++;
+                }
+                for (int x = xl; x <= xr; x++) {
+                    mark.mark(row + x);
+                }
+                count += xr - xl + 1;
+                if (y > 0) {
+                    seeds(row - width, xl, xr, test);
+                }
+                if (y < height - 1) {
+                    seeds(row + width, xl, xr, test);
+                }
+            }
+            return count;
+        }
+
+        private void seeds(int row, int xl, int xr, Test test) {
+            boolean inRun = false;
+            for (int x = xl; x <= xr; x++) {
+                boolean o = test.open(row + x);
+                if (o && !inRun) {
+                    push(row + x);
+                }
+                inRun = o;
+            }
+        }
+
+        private void push(int v) {
+            if (size == stack.length) {
+                stack = java.util.Arrays.copyOf(stack, stack.length * 2);
+            }
+            stack[size++] = v;
+        }
     }
 }

@@ -110,6 +110,15 @@ public final class PhantomQa {
     }
 
     public static Result run(Input in) throws InputException {
+        return run(in, null);
+    }
+
+    /**
+     * @param progress receives the fraction done (0..1) after each stage (SNR, uniformity windows,
+     *                 non-uniformity); may be null
+     */
+    public static Result run(Input in, java.util.function.DoubleConsumer progress) throws InputException {
+        java.util.function.DoubleConsumer done = progress == null ? f -> { } : progress;
         if (in.frames().length == 0) {
             throw new InputException("no image to measure");
         }
@@ -175,9 +184,12 @@ public final class PhantomQa {
             warnings.addAll(r.warnings());
         }
 
+        done.accept(0.5);
         QaMetrics.Windows win = QaMetrics.searchWindows(reference, w, h, signal, pl.windowW(), pl.windowH());
         double piu = QaMetrics.piu(win.high(), win.low());
+        done.accept(0.75);
         double nu = QaMetrics.nemaNonUniformity(reference, w, h, signal);
+        done.accept(1.0);
         double ghosting = Double.NaN;
         double[] sides = new double[] {Double.NaN, Double.NaN, Double.NaN, Double.NaN};
         if (pl.top() != null && pl.bottom() != null && pl.left() != null && pl.right() != null) {

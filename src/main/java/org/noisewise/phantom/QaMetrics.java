@@ -48,7 +48,7 @@ public final class QaMetrics {
 
     /**
      * The {@code sideW x sideH} windows lying wholly inside {@code region} with the highest and lowest
-     * mean (summed-area tables, so every position is tried). Non-finite pixels outside the region
+     * mean (sliding sums over columns and rows, so every position is tried with one row of memory). Non-finite pixels outside the region
      * change nothing (they are summed as 0 and no window holding them is inside the region).
      *
      * @throws InputException when no such window fits inside the region
@@ -59,21 +59,9 @@ public final class QaMetrics {
         for (int i : region.indices()) {
             in[i] = true;
         }
-        double[] sum = new double[(width + 1) * (height + 1)];
-        int[] cnt = new int[(width + 1) * (height + 1)];
-        int w1 = width + 1;
-        for (int y = 0; y < height; y++) {
-            double rowSum = 0;
-            int rowCnt = 0;
-            for (int x = 0; x < width; x++) {
-                int i = y * width + x;
-                float v = pixels[i];
-                rowSum += Float.isFinite(v) ? v : 0.0;
-                rowCnt += in[i] && Float.isFinite(v) ? 1 : 0;
-                sum[(y + 1) * w1 + x + 1] = sum[y * w1 + x + 1] + rowSum;
-                cnt[(y + 1) * w1 + x + 1] = cnt[y * w1 + x + 1] + rowCnt;
-            }
-        }
+        // sliding sums: per column over the current sideH rows, then along the row; memory of one row
+        double[] colSum = new double[width];
+        int[] colCnt = new int[width];
         double best = Double.NEGATIVE_INFINITY;
         double worst = Double.POSITIVE_INFINITY;
         int bx = -1;
@@ -81,25 +69,37 @@ public final class QaMetrics {
         int wx = -1;
         int wy = -1;
         int full = sideW * sideH;
-        for (int y = 0; y + sideH <= height; y++) {
-            for (int x = 0; x + sideW <= width; x++) {
-                int a = y * w1 + x;
-                int b = y * w1 + x + sideW;
-                int c = (y + sideH) * w1 + x;
-                int d = (y + sideH) * w1 + x + sideW;
-                if (cnt[d] - cnt[b] - cnt[c] + cnt[a] != full) {
+        for (int y = 0; y < height; y++) {
+            addRow(pixels, in, width, y, colSum, colCnt, 1);
+            if (y >= sideH) {
+                addRow(pixels, in, width, y - sideH, colSum, colCnt, -1);
+            }
+            int top = y - sideH + 1;
+            if (top < 0 || sideW > width) {
+                continue;
+            }
+            double s = 0;
+            int c = 0;
+            for (int x = 0; x < width; x++) {
+                s += colSum[x];
+                c += colCnt[x];
+                if (x >= sideW) {
+                    s -= colSum[x - sideW];
+                    c -= colCnt[x - sideW];
+                }
+                if (x < sideW - 1 || c != full) {
                     continue;
                 }
-                double mean = (sum[d] - sum[b] - sum[c] + sum[a]) / full;
+                double mean = s / full;
                 if (mean > best) {
                     best = mean;
-                    bx = x;
-                    by = y;
+                    bx = x - sideW + 1;
+                    by = top;
                 }
                 if (mean < worst) {
                     worst = mean;
-                    wx = x;
-                    wy = y;
+                    wx = x - sideW + 1;
+                    wy = top;
                 }
             }
         }
@@ -111,27 +111,74 @@ public final class QaMetrics {
         return new Windows(sideW, sideH, bx, by, best, wx, wy, worst);
     }
 
+    private static boolean ascending(int[] v) {
+        for (int i = 1; i < v.length; i++) {
+            if (v[i - 1] > v[i]) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /** The sum and count of the finite values among {@code x - 1, x, x + 1} of row {@code y}, for every x. */
+    private static void rowSums(float[] pixels, int width, int y, double[] sum, int[] cnt) {
+        int row = y * width;
+        for (int x = 0; x < width; x++) {
+            double s = 0;
+            int n = 0;
+            for (int xx = Math.max(0, x - 1); xx <= Math.min(width - 1, x + 1); xx++) {
+                float v = pixels[row + xx];
+                if (Float.isFinite(v)) {
+                    s += v;
+                    n++;
+                }
+            }
+            sum[x] = s;
+            cnt[x] = n;
+        }
+    }
+
+    /** Adds ({@code sign = 1}) or removes ({@code -1}) row {@code y} from the column sums. */
+    private static void addRow(float[] pixels, boolean[] in, int width, int y, double[] colSum, int[] colCnt,
+                               int sign) {
+        int row = y * width;
+        for (int x = 0; x < width; x++) {
+            float v = pixels[row + x];
+            boolean finite = Float.isFinite(v);
+            colSum[x] += finite ? sign * (double) v : 0.0;
+            colCnt[x] += in[row + x] && finite ? sign : 0;
+        }
+    }
+
     /**
      * NEMA-style non-uniformity (percent) of the 3x3 mean-smoothed image over the region's pixels
      * (neighbours outside the image or not finite are left out of the 3x3 mean).
      */
     public static double nemaNonUniformity(float[] pixels, int width, int height, Region region) {
+        int[] idx = region.indices();
+        if (!ascending(idx)) {
+            idx = idx.clone();
+            java.util.Arrays.sort(idx);
+        }
         double max = Double.NEGATIVE_INFINITY;
         double min = Double.POSITIVE_INFINITY;
-        for (int i : region.indices()) {
+        // 3-pixel sums along each row (finite neighbours only), three rows kept in a ring as the rows go by
+        double[][] rowSum = new double[3][width];
+        int[][] rowCnt = new int[3][width];
+        int[] held = {-1, -1, -1};
+        for (int i : idx) {
             int x = i % width;
             int y = i / width;
             double s = 0;
             int n = 0;
-            for (int dy = -1; dy <= 1; dy++) {
-                for (int dx = -1; dx <= 1; dx++) {
-                    int xx = x + dx;
-                    int yy = y + dy;
-                    if (xx >= 0 && yy >= 0 && xx < width && yy < height && Float.isFinite(pixels[yy * width + xx])) {
-                        s += pixels[yy * width + xx];
-                        n++;
-                    }
+            for (int yy = Math.max(0, y - 1); yy <= Math.min(height - 1, y + 1); yy++) {
+                int slot = yy % 3;
+                if (held[slot] != yy) {
+                    rowSums(pixels, width, yy, rowSum[slot], rowCnt[slot]);
+                    held[slot] = yy;
                 }
+                s += rowSum[slot][x];
+                n += rowCnt[slot][x];
             }
             double m = s / n;
             max = Math.max(max, m);

@@ -3,7 +3,6 @@ package org.noisewise.phantom;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
-import java.util.stream.IntStream;
 import org.noisewise.diagnose.PhaseDirection;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.Warning;
@@ -105,40 +104,91 @@ public final class QaRegions {
         return new Placement(signal, bg, top, bottom, left, right, windowW, windowH, warnings);
     }
 
-    /** The phantom's shape scaled about its centroid to hold {@code fraction} of its pixels. */
+    /**
+     * The phantom's shape scaled about its centroid to hold {@code fraction} of its pixels: a phantom
+     * pixel lies inside the shape scaled by {@code s} when its normalised distance {@code q} (squared,
+     * {@code (dx/a)^2 + (dy/b)^2} for an ellipse, {@code max((dx/a)^2, (dy/b)^2)} for a rectangle) is at
+     * most {@code s^2}, so the scale is the square root of the {@code k}-th smallest {@code q}, found by
+     * a histogram pass and a sort of one bin (time linear in the pixels, no per-pixel array).
+     */
     static PlacedRegion signal(Phantom p, int width, int height, double fraction) {
-        int target = (int) Math.round(fraction * p.area());
-        double lo = 0;
-        double hi = 1.5;
-        for (int it = 0; it < 60; it++) {
-            double mid = 0.5 * (lo + hi);
-            if (count(p, width, height, mid) < target) {
-                lo = mid;
-            } else {
-                hi = mid;
-            }
-        }
-        double s = hi;
+        int target = Math.max(1, (int) Math.round(fraction * p.area()));
+        double[] limitAndCount = kthSmallestQ(p, width, target);
+        double s = Math.sqrt(limitAndCount[0]);
         double a = s * p.semiX();
         double b = s * p.semiY();
-        int[] idx = members(p, width, height, s);
+        int[] idx = members(p, width, limitAndCount[0], (int) limitAndCount[1]);
         return new PlacedRegion("signal", p.rectangular() ? PlacedRegion.Kind.RECTANGLE : PlacedRegion.Kind.OVAL,
                 p.cx() - a, p.cy() - b, 2 * a, 2 * b, new Region("signal", idx));
     }
 
-    private static int count(Phantom p, int width, int height, double s) {
-        return members(p, width, height, s).length;
+    private static double q(Phantom p, int x, int y) {
+        double dx = (x + 0.5 - p.cx()) / p.semiX();
+        double dy = (y + 0.5 - p.cy()) / p.semiY();
+        return p.rectangular() ? Math.max(dx * dx, dy * dy) : dx * dx + dy * dy;
     }
 
-    private static int[] members(Phantom p, int width, int height, double s) {
-        double a = s * p.semiX();
-        double b = s * p.semiY();
-        return IntStream.range(0, width * height).filter(i -> {
-            double dx = (i % width + 0.5 - p.cx()) / a;
-            double dy = (i / width + 0.5 - p.cy()) / b;
-            boolean in = p.rectangular() ? Math.abs(dx) <= 1 && Math.abs(dy) <= 1 : dx * dx + dy * dy <= 1;
-            return in && p.inside(i);
-        }).toArray();
+    /**
+     * The {@code k}-th smallest {@code q} over the phantom's pixels (1-based {@code k}) and how many
+     * pixels have {@code q} at most that value (ties included).
+     */
+    static double[] kthSmallestQ(Phantom p, int width, int k) {
+        int bins = 1 << 16;
+        // q is convex, so over the bounding box it is largest at a corner
+        double qMax = 0;
+        for (int y : new int[] {p.minY(), p.maxY()}) {
+            for (int x : new int[] {p.minX(), p.maxX()}) {
+                qMax = Math.max(qMax, q(p, x, y));
+            }
+        }
+        int[] hist = new int[bins];
+        double scale = bins / Math.nextUp(qMax);
+        for (int y = p.minY(); y <= p.maxY(); y++) {
+            for (int x = p.minX(); x <= p.maxX(); x++) {
+                if (p.inside(y * width + x)) {
+                    hist[Math.min(bins - 1, (int) (q(p, x, y) * scale))]++;
+                }
+            }
+        }
+        int bin = 0;
+        int before = 0;
+        while (bin < bins - 1 && before + hist[bin] < k) {
+            before += hist[bin];
+            bin++;
+        }
+        double[] inBin = new double[hist[bin]];
+        int n = 0;
+        for (int y = p.minY(); y <= p.maxY(); y++) {
+            for (int x = p.minX(); x <= p.maxX(); x++) {
+                if (p.inside(y * width + x)) {
+                    double v = q(p, x, y);
+                    if (Math.min(bins - 1, (int) (v * scale)) == bin) {
+                        inBin[n++] = v;
+                    }
+                }
+            }
+        }
+        java.util.Arrays.sort(inBin, 0, n);
+        double limit = inBin[Math.max(0, Math.min(n - 1, k - before - 1))];
+        int atMost = before;
+        while (atMost - before < n && inBin[atMost - before] <= limit) {
+            atMost++;
+        }
+        return new double[] {limit, atMost};
+    }
+
+    /** The {@code count} phantom pixels with {@code q <= limit}, in raster order. */
+    private static int[] members(Phantom p, int width, double limit, int count) {
+        int[] idx = new int[count];
+        int n = 0;
+        for (int y = p.minY(); y <= p.maxY(); y++) {
+            for (int x = p.minX(); x <= p.maxX(); x++) {
+                if (p.inside(y * width + x) && q(p, x, y) <= limit) {
+                    idx[n++] = y * width + x;
+                }
+            }
+        }
+        return idx;
     }
 
     /**

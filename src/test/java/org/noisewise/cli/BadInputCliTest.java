@@ -134,4 +134,34 @@ class BadInputCliTest {
             assertEquals(List.of(), parts);
         }
     }
+
+    /** Issue 10: a full Java heap is one clear line saying what to do, exit 3, no stack trace (a real child JVM). */
+    @Test
+    void outOfMemoryIsOneClearLine() throws Exception {
+        ij.process.FloatProcessor big = new ij.process.FloatProcessor(3000, 3000);
+        Path file = dir.resolve("big.tif");
+        new ij.io.FileSaver(new ImagePlus("big", big)).saveAsTiff(file.toString());
+        String jvm = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        ProcessBuilder pb = new ProcessBuilder(jvm, "-Xmx24m", "-cp", System.getProperty("java.class.path"),
+                NoisewiseCli.class.getName(), "qa", file.toString());
+        pb.redirectErrorStream(true);
+        Process p = pb.start();
+        String all = new String(p.getInputStream().readAllBytes(), java.nio.charset.StandardCharsets.UTF_8).strip();
+        assertEquals(3, p.waitFor(), all);
+        assertTrue(all.startsWith("noisewise: error: out of memory (the Java heap is at most "), all);
+        assertTrue(all.contains("-Xmx") && all.contains("--slice"), all);
+        assertFalse(all.contains("Exception") || all.contains("\tat "), all);
+        assertEquals(1, all.lines().count(), all);
+    }
+
+    /** Issue 10: --progress reports on stderr from the reading of the file to the end, for every measuring command. */
+    @Test
+    void progressOnRequest() {
+        CliRunner.Result r = CliRunner.run("qa", A, "--progress");
+        assertEquals(0, r.status(), r.err());
+        assertTrue(r.err().contains("qa:   0% reading aster_disk_acq1.tif"), r.err());
+        assertTrue(r.err().contains("qa: 100%"), r.err());
+        CliRunner.Result q = CliRunner.run("qa", A);
+        assertFalse(q.err().contains("%"), "no progress unless asked (stderr is not a terminal): " + q.err());
+    }
 }

@@ -166,4 +166,99 @@ class QaMetricsTest {
             }
         }
     }
+
+    /**
+     * The window search and the 3x3 non-uniformity against their definitions computed the slow way
+     * (every window's mean summed pixel by pixel; every pixel's 3x3 mean of its finite neighbours), on
+     * a random image with NaN pixels and an irregular region.
+     */
+    @Test
+    void windowSearchAndNonUniformityAgainstBruteForce() throws InputException {
+        int w = 61;
+        int h = 47;
+        java.util.SplittableRandom rng = new java.util.SplittableRandom(4);
+        float[] px = new float[w * h];
+        for (int i = 0; i < px.length; i++) {
+            px[i] = rng.nextInt(50) == 0 ? Float.NaN : (float) (100 + 10 * rng.nextGaussian());
+        }
+        java.util.List<Integer> in = new java.util.ArrayList<>();
+        for (int y = 3; y < h - 2; y++) {
+            for (int x = 2 + y % 5; x < w - 4; x++) {
+                in.add(y * w + x);
+            }
+        }
+        Region region = new Region("r", in.stream().mapToInt(Integer::intValue).toArray());
+        java.util.Set<Integer> inside = new java.util.HashSet<>(in);
+        int sw = 7;
+        int sh = 5;
+        double best = Double.NEGATIVE_INFINITY;
+        double worst = Double.POSITIVE_INFINITY;
+        int bx = -1;
+        int by = -1;
+        for (int y = 0; y + sh <= h; y++) {
+            for (int x = 0; x + sw <= w; x++) {
+                double s = 0;
+                boolean ok = true;
+                for (int yy = y; yy < y + sh && ok; yy++) {
+                    for (int xx = x; xx < x + sw; xx++) {
+                        int i = yy * w + xx;
+                        ok &= inside.contains(i) && Float.isFinite(px[i]);
+                        s += ok ? px[i] : 0;
+                    }
+                }
+                if (ok && s / (sw * sh) > best) {
+                    best = s / (sw * sh);
+                    bx = x;
+                    by = y;
+                }
+                if (ok) {
+                    worst = Math.min(worst, s / (sw * sh));
+                }
+            }
+        }
+        QaMetrics.Windows win = QaMetrics.searchWindows(px, w, h, region, sw, sh);
+        assertEquals(best, win.high(), 1e-9);
+        assertEquals(worst, win.low(), 1e-9);
+        assertEquals(bx, win.highX());
+        assertEquals(by, win.highY());
+
+        double max = Double.NEGATIVE_INFINITY;
+        double min = Double.POSITIVE_INFINITY;
+        for (int i : in) {
+            int x = i % w;
+            int y = i / w;
+            double s = 0;
+            int n = 0;
+            for (int dy = -1; dy <= 1; dy++) {
+                for (int dx = -1; dx <= 1; dx++) {
+                    int xx = x + dx;
+                    int yy = y + dy;
+                    if (xx >= 0 && yy >= 0 && xx < w && yy < h && Float.isFinite(px[yy * w + xx])) {
+                        s += px[yy * w + xx];
+                        n++;
+                    }
+                }
+            }
+            max = Math.max(max, s / n);
+            min = Math.min(min, s / n);
+        }
+        assertEquals(100 * (max - min) / (max + min), QaMetrics.nemaNonUniformity(px, w, h, region), 1e-9);
+    }
+
+    /** Issue 10: a large slice is embedded reduced to at most 1024 pixels on its long side, the input untouched. */
+    @Test
+    void largeSliceIsEmbeddedReduced() {
+        int w = 2500;
+        int h = 1800;
+        float[] px = new float[w * h];
+        for (int i = 0; i < px.length; i++) {
+            px[i] = i % 977;
+        }
+        float[] copy = px.clone();
+        ij.ImagePlus shot = org.noisewise.io.QaImages.sliceWithRegions("s", px, w, h, java.util.List.of(
+                new PlacedRegion("signal", PlacedRegion.Kind.OVAL, 500, 400, 1500, 1000, null)));
+        assertTrue(Math.max(shot.getWidth(), shot.getHeight()) <= 1024, shot.getWidth() + "x" + shot.getHeight());
+        assertTrue(Math.max(shot.getWidth(), shot.getHeight()) >= 512);
+        org.junit.jupiter.api.Assertions.assertArrayEquals(copy, px);
+    }
 }

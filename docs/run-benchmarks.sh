@@ -6,5 +6,6 @@ mvn -B -q test-compile dependency:build-classpath -Dmdep.outputFile=target/cp.tx
 CP="target/classes:target/test-classes:$(cat target/cp.txt)"
 java -Xmx3g -cp "$CP" org.noisewise.bench.RepeatedMapsBenchmark
 java -Xmx3g -cp "$CP" org.noisewise.bench.RicianCorrectionBenchmark
+java -Xmx3g -cp "$CP" org.noisewise.bench.StabilityBenchmark
 mvn -B -q package -DskipTests
 java -Xmx3g -cp "$CP" org.noisewise.bench.LargeImageBenchmark target/noisewise.jar

@@ -42,7 +42,7 @@ public class BatchCommand implements Callable<Integer> {
     public static final int EXIT_SOME_FAILED = 4;
 
     /** The methods batch can run. */
-    enum Method { background, difference, repeat }
+    enum Method { background, difference, repeat, stability }
 
     @Spec
     CommandSpec spec;
@@ -51,7 +51,7 @@ public class BatchCommand implements Callable<Integer> {
     Path folder;
 
     @Option(names = "--method", required = true, paramLabel = "NAME",
-            description = "background, difference (two frames of each stack) or repeat.")
+            description = "background, difference (two frames of each stack), repeat or stability.")
     Method method;
 
     @Mixin
@@ -72,6 +72,14 @@ public class BatchCommand implements Callable<Integer> {
 
     @Option(names = "--rician", description = "repeat: accepted for compatibility; the correction is always applied.")
     boolean rician;
+
+    @Option(names = "--skip", paramLabel = "N", description = "stability: frames to drop at the start (default: "
+            + org.noisewise.series.Stability.DEFAULT_SKIP + ").")
+    Integer skip;
+
+    @Option(names = "--roi-size", paramLabel = "S", description = "stability: side of the square centred on the phantom "
+            + "(default: " + org.noisewise.series.Stability.DEFAULT_ROI + ").")
+    Integer roiSize;
 
     @Option(names = "--slice", paramLabel = "N", description = "1-based slice (z) of each image (default: every slice).")
     Integer slice;
@@ -95,6 +103,10 @@ public class BatchCommand implements Callable<Integer> {
             throw new InputException("'" + folder + "' is not a folder: give the folder to walk");
         }
         Integer channels = channelOption.get(method == Method.background);
+        if (method != Method.stability && (skip != null || roiSize != null)) {
+            throw new InputException("--skip and --roi-size belong to --method stability: leave them out for "
+                    + method);
+        }
         SigmaEstimator est = BackgroundCommand.parseEstimator(estimator);
         PhaseDirection dir = phase == null ? null : BackgroundCommand.parsePhase(phase);
         if (csv != null) {
@@ -127,6 +139,11 @@ public class BatchCommand implements Callable<Integer> {
                             channels == null ? 1 : channels, slice, Progress.NONE).rows();
                     case repeat -> RepeatCommand.summary(imp, item.name(), regions, channels == null ? 1 : channels,
                             slice, Progress.NONE).rows();
+                    case stability -> StabilityCommand.run(imp, item.name(), regions,
+                            org.noisewise.measure.StabilityMeasure.Options.measure(Slices.selectZ(imp, slice),
+                                    skip == null ? org.noisewise.series.Stability.DEFAULT_SKIP : skip,
+                                    roiSize == null ? org.noisewise.series.Stability.DEFAULT_ROI : roiSize, false),
+                            item.path(), Progress.NONE).measurement().rows();
                 };
                 for (ResultRow row : r) {
                     rows.add(row.add("status", "Status", "ok").add("error", "Error", ""));

@@ -14,6 +14,7 @@ import java.util.concurrent.Callable;
 import org.noisewise.estimate.InputException;
 import org.noisewise.report.Formats;
 import org.noisewise.sample.SampleCatalog;
+import org.noisewise.sample.StabilitySample;
 import org.noisewise.sample.SampleCatalog.Rect;
 import org.noisewise.sample.SampleCatalog.Sample;
 import picocli.CommandLine.Command;
@@ -50,6 +51,8 @@ public class GenerateSamplesCommand implements Callable<Integer> {
                 }
                 truth.add(toJson(s));
             }
+            writeStability(out);
+            truth.add(stabilityTruth());
             JsonObject root = new JsonObject();
             root.addProperty("scenario", "Invented: the imaging-physics bench of the fictional Fernhollow Institute.");
             root.addProperty("generator", "org.noisewise.sample.SampleCatalog (java -jar target/noisewise.jar generate-samples)");
@@ -59,6 +62,49 @@ public class GenerateSamplesCommand implements Callable<Integer> {
             throw new InputException("cannot write samples to '" + out + "': " + e.getMessage());
         }
         return 0;
+    }
+
+    /** The stability series as a hyperstack of one slice and its frames, 16-bit, with its frame interval. */
+    static void writeStability(Path out) throws InputException {
+        int n = StabilitySample.SIZE;
+        ImageStack st = new ImageStack(n, n);
+        for (short[] frame : StabilitySample.generate()) {
+            st.addSlice(new ij.process.ShortProcessor(n, n, frame, null));
+        }
+        ImagePlus imp = new ImagePlus(StabilitySample.FILE, st);
+        imp.setDimensions(1, 1, StabilitySample.FRAMES);
+        imp.setOpenAsHyperStack(true);
+        imp.setProperty("Info", "Noisewise generated sample (invented scenario): Aster, weekly stability series of the "
+                + "disk phantom");
+        imp.getCalibration().pixelWidth = StabilitySample.PIXEL_MM;
+        imp.getCalibration().pixelHeight = StabilitySample.PIXEL_MM;
+        imp.getCalibration().pixelDepth = 4.0;
+        imp.getCalibration().setUnit("mm");
+        imp.getCalibration().frameInterval = StabilitySample.FRAME_SECONDS;
+        imp.getCalibration().setTimeUnit("sec");
+        if (!new FileSaver(imp).saveAsTiffStack(out.resolve(StabilitySample.FILE).toString())) {
+            throw new InputException("could not write " + out.resolve(StabilitySample.FILE));
+        }
+    }
+
+    private static JsonObject stabilityTruth() {
+        JsonObject o = new JsonObject();
+        o.addProperty("file", StabilitySample.FILE);
+        o.addProperty("description", "Aster, 102-frame stability series of the disk phantom (a frame every 2 s): "
+                + "white noise sigma 8, a common fluctuation SD 2, a 4-unit linear drift, the first two frames 5% high");
+        o.addProperty("use", "stability");
+        o.addProperty("frames", StabilitySample.FRAMES);
+        o.addProperty("channels", 1);
+        o.addProperty("amplitude", StabilitySample.A);
+        o.addProperty("sigma", StabilitySample.SIGMA);
+        o.addProperty("common_fluctuation_sd", StabilitySample.S);
+        o.addProperty("true_sfnr", StabilitySample.trueSfnr());
+        o.addProperty("true_snr", StabilitySample.trueSnr());
+        o.addProperty("true_percent_fluctuation", StabilitySample.truePercentFluctuation());
+        o.addProperty("true_drift_percent", StabilitySample.trueDriftPercent());
+        o.addProperty("true_rdc", StabilitySample.trueRdc());
+        o.addProperty("seed", StabilitySample.SEED);
+        return o;
     }
 
     private static JsonObject toJson(Sample s) {

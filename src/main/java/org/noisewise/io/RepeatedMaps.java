@@ -1,7 +1,6 @@
 package org.noisewise.io;
 
 import ij.ImagePlus;
-import ij.measure.Calibration;
 import java.util.function.DoubleConsumer;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.RepeatedAcquisitions;
@@ -28,26 +27,9 @@ public final class RepeatedMaps {
      */
     public static RepeatedAcquisitions.Maps compute(ImagePlus imp, int z, DoubleConsumer progress)
             throws InputException {
-        ImagePlanes.requireGrayscale(imp);
-        int k = StackPlanes.repeatCount(imp);
-        Object[] frames = new Object[k];
-        for (int t = 1; t <= k; t++) {
-            frames[t - 1] = imp.getStack().getPixels(StackPlanes.index(imp, z, t));
-        }
-        double offset = 0.0;
-        double slope = 1.0;
-        float[] table = null;
-        Calibration cal = imp.getCalibration();
-        if (imp.getBitDepth() != 32 && cal.calibrated()) {
-            double[] c = cal.getCoefficients();
-            if (cal.getFunction() == Calibration.STRAIGHT_LINE && c != null && c.length >= 2) {
-                offset = c[0];
-                slope = c[1];
-            } else {
-                table = cal.getCTable();
-            }
-        }
-        return RepeatedAcquisitions.maps(frames, imp.getWidth(), imp.getHeight(), offset, slope, table, progress);
+        SeriesFrames f = SeriesFrames.of(imp, z);
+        return RepeatedAcquisitions.maps(f.frames(), imp.getWidth(), imp.getHeight(), f.offset(), f.slope(), f.table(),
+                progress);
     }
 
     /** The repeats of z slice {@code z}, read as calibrated planes when asked for. */

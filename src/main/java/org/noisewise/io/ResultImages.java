@@ -34,6 +34,28 @@ public final class ResultImages {
         return imp;
     }
 
+    /**
+     * A four-slice stack of the stability maps: signal (temporal mean), fluctuation noise (residual SD
+     * after the quadratic fit), SFNR and static spatial noise (odd minus even frames), with the source's
+     * spatial calibration.
+     */
+    public static ImagePlus stabilityStack(String title, org.noisewise.series.StabilityMaps maps, ImagePlus like,
+                                           String unit) {
+        int w = maps.width();
+        int h = maps.height();
+        ImageStack st = new ImageStack(w, h);
+        st.addSlice("signal (temporal mean) [" + unit + "]", new FloatProcessor(w, h, maps.signal().clone()));
+        st.addSlice("fluctuation noise (residual SD) [" + unit + "]", new FloatProcessor(w, h, maps.fluctuation().clone()));
+        st.addSlice("SFNR (signal / fluctuation noise)", new FloatProcessor(w, h, maps.sfnr().clone()));
+        st.addSlice("static spatial noise (odd - even frames) [" + unit + "]",
+                new FloatProcessor(w, h, maps.staticNoise().clone()));
+        ImagePlus imp = new ImagePlus(title, st);
+        copyCalibration(like, imp, null);
+        imp.setSlice(3);
+        imp.resetDisplayRange();
+        return imp;
+    }
+
     private static void copyCalibration(ImagePlus from, ImagePlus to, String valueUnit) {
         if (from == null) {
             return;

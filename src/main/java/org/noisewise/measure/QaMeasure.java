@@ -322,6 +322,23 @@ public final class QaMeasure {
     /** Duplicate, baseline and published-limit flags of a session; {@code baselines} receives each metric's. */
     static List<String> flags(List<QaLog.Entry> history, Map<String, String> values, int n, PhantomQa.Result r,
                               ActionLimits limits, Map<String, QaLog.Baseline> baselines) {
+        List<String> f = logFlags(history, values, n, baselines);
+        if (limits != null) {
+            if (Boolean.FALSE.equals(r.piuPasses())) {
+                f.add(String.format(Locale.ROOT, "PIU %.1f%% below the published limit %.1f%% (action)", r.piu(),
+                        limits.minimumPiu()));
+            }
+            if (Boolean.FALSE.equals(r.ghostingPasses())) {
+                f.add(String.format(Locale.ROOT, "ghosting %.2f%% above the published limit %.1f%% (action)",
+                        r.ghostingPercent(), limits.maximumGhostingPercent()));
+            }
+        }
+        return f;
+    }
+
+    /** Duplicate and baseline flags of a session (any method); {@code baselines} receives each metric's. */
+    static List<String> logFlags(List<QaLog.Entry> history, Map<String, String> values, int n,
+                                 Map<String, QaLog.Baseline> baselines) {
         List<String> f = new ArrayList<>();
         QaLog.Entry probe = new QaLog.Entry(values);
         QaLog.Entry dup = QaLog.duplicateOf(history, values.get("data_id"));
@@ -338,16 +355,6 @@ public final class QaMeasure {
             String flag = QaLog.flag(b, probe.number(m.getKey()), m.getValue());
             if (!flag.isEmpty()) {
                 f.add(flag);
-            }
-        }
-        if (limits != null) {
-            if (Boolean.FALSE.equals(r.piuPasses())) {
-                f.add(String.format(Locale.ROOT, "PIU %.1f%% below the published limit %.1f%% (action)", r.piu(),
-                        limits.minimumPiu()));
-            }
-            if (Boolean.FALSE.equals(r.ghostingPasses())) {
-                f.add(String.format(Locale.ROOT, "ghosting %.2f%% above the published limit %.1f%% (action)",
-                        r.ghostingPercent(), limits.maximumGhostingPercent()));
             }
         }
         return f;
@@ -429,9 +436,14 @@ public final class QaMeasure {
      * session, against acquisition date (the recording time where the acquisition date is unknown).
      */
     static Map<String, byte[]> trends(Outcome out, Options o) {
-        List<QaLog.Entry> all = new ArrayList<>(out.history());
-        all.add(out.entry());
-        String key = out.entry().key();
+        return trends(out.history(), out.entry(), out.result().limits(), o.baseline());
+    }
+
+    /** The trend plots of a session's metrics against its key's history (any method). */
+    static Map<String, byte[]> trends(List<QaLog.Entry> history, QaLog.Entry entry, ActionLimits limits, int baseline) {
+        List<QaLog.Entry> all = new ArrayList<>(history);
+        all.add(entry);
+        String key = entry.key();
         List<QaLog.Entry> mine = all.stream().filter(e -> e.key().equals(key)).toList();
         double[] when = mine.stream().mapToDouble(QaMeasure::epochDays).toArray();
         double origin = java.util.Arrays.stream(when).filter(Double::isFinite).min().orElse(0);
@@ -439,14 +451,14 @@ public final class QaMeasure {
         String originText = java.time.LocalDate.ofEpochDay((long) Math.floor(origin)).toString();
         Map<String, byte[]> pngs = new LinkedHashMap<>();
         for (Map.Entry<String, String> m : QaLog.METRICS.entrySet()) {
-            if (!Double.isFinite(out.entry().number(m.getKey()))) {
+            if (!Double.isFinite(entry.number(m.getKey()))) {
                 continue;
             }
             double[] v = mine.stream().mapToDouble(e -> e.number(m.getKey())).toArray();
-            QaLog.Baseline b = QaLog.baseline(all, key, m.getKey(), o.baseline());
-            boolean[] members = members(all, mine, key, m.getKey(), o.baseline());
+            QaLog.Baseline b = QaLog.baseline(all, key, m.getKey(), baseline);
+            boolean[] members = members(all, mine, key, m.getKey(), baseline);
             pngs.put(m.getKey(), QaImages.png(QaImages.trend(m.getValue(), days, v, members, b,
-                    out.result().limits(), m.getKey(), originText).getImagePlus()));
+                    limits, m.getKey(), originText).getImagePlus()));
         }
         return pngs;
     }

@@ -86,9 +86,13 @@ public final class QaLog {
             }
         }
 
-        /** The baseline key: scanner, coil and protocol. */
+        /**
+         * The baseline key: scanner, coil and protocol (and the method for stability runs, whose static-noise
+         * SNR is not the phantom QA's SNR).
+         */
         public String key() {
-            return get("scanner") + " | " + get("coil") + " | " + get("protocol");
+            return get("scanner") + " | " + get("coil") + " | " + get("protocol")
+                    + ("stability".equals(get("method")) ? " | stability" : "");
         }
     }
 

@@ -68,6 +68,9 @@ public final class Formats {
         if (v == null) {
             return JsonNull.INSTANCE;
         }
+        if (v instanceof JsonElement e) {
+            return e.deepCopy();
+        }
         if (v instanceof Double d) {
             return Double.isFinite(d) ? new JsonPrimitive(d) : JsonNull.INSTANCE;
         }

@@ -41,8 +41,11 @@ class SampleImagesTest {
     void truthFileMatchesTheCatalog() throws IOException {
         JsonObject root = JsonParser.parseString(Files.readString(DIR.resolve("truth.json"))).getAsJsonObject();
         JsonArray samples = root.getAsJsonArray("samples");
-        assertEquals(SampleCatalog.SAMPLES.size(), samples.size());
-        for (int i = 0; i < samples.size(); i++) {
+        assertEquals(SampleCatalog.SAMPLES.size() + 1, samples.size(), "the image samples and the stability series");
+        JsonObject st = samples.get(samples.size() - 1).getAsJsonObject();
+        assertEquals(org.noisewise.sample.StabilitySample.FILE, st.get("file").getAsString());
+        assertEquals(org.noisewise.sample.StabilitySample.trueSfnr(), st.get("true_sfnr").getAsDouble());
+        for (int i = 0; i < SampleCatalog.SAMPLES.size(); i++) {
             JsonObject o = samples.get(i).getAsJsonObject();
             SampleCatalog.Sample s = SampleCatalog.SAMPLES.get(i);
             assertEquals(s.file(), o.get("file").getAsString());
@@ -94,5 +97,29 @@ class SampleImagesTest {
         assertTrue(ci.contains(s.trueSnr()), ci.toString());
         assertTrue(Math.min(s.trueSnr() - ci.low(), ci.high() - s.trueSnr()) >= 0.2 * half, ci.toString());
         assertEquals(org.noisewise.diagnose.Verdict.VALID, r.verdict());
+    }
+
+    /**
+     * The bundled stability series is what its generator makes (a hyperstack of 102 frames, a frame every
+     * 2 s), and the stability figures' intervals contain its true SFNR and static-noise SNR (closed forms
+     * in {@code StabilitySample}).
+     */
+    @Test
+    void stabilitySeriesMatchesTheGeneratorAndItsTruth() throws InputException {
+        ImagePlus imp = ImageFiles.open(DIR.resolve(org.noisewise.sample.StabilitySample.FILE));
+        short[][] frames = org.noisewise.sample.StabilitySample.generate();
+        assertEquals(frames.length, imp.getNFrames());
+        assertEquals(2.0, imp.getCalibration().frameInterval, 1e-12);
+        for (int t = 0; t < frames.length; t++) {
+            assertArrayEquals(frames[t], (short[]) imp.getStack().getPixels(imp.getStackIndex(1, 1, t + 1)), "frame " + t);
+        }
+        var out = org.noisewise.measure.StabilityMeasure.run(imp, "sample", null,
+                org.noisewise.measure.StabilityMeasure.Options.measure(new int[] {1}, 2, 21, false), null,
+                org.noisewise.measure.Progress.NONE);
+        var r = out.results().get(0);
+        assertTrue(r.sfnrCi95().contains(org.noisewise.sample.StabilitySample.trueSfnr()), r.sfnrCi95().toString());
+        assertTrue(r.snrCi95().contains(org.noisewise.sample.StabilitySample.trueSnr()), r.snrCi95().toString());
+        assertEquals(100, r.framesUsed());
+        assertEquals(2.0, r.repetitionSeconds(), 1e-12);
     }
 }

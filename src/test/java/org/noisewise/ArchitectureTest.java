@@ -13,7 +13,8 @@ import org.junit.jupiter.api.Test;
 /** The core stays pure Java: no ImageJ, no printing, no dialogs (conventions.md, "The shape"). */
 class ArchitectureTest {
 
-    private static final List<String> CORE = List.of("math", "dist", "estimate", "diagnose", "phantom", "report", "sample");
+    private static final List<String> CORE = List.of("math", "dist", "estimate", "diagnose", "phantom", "series",
+            "protocol", "report", "sample");
 
     @Test
     void corePackagesDoNotTouchImageJOrTheConsole() throws IOException {

@@ -1,5 +1,12 @@
 package org.noisewise.cli;
 
+import org.noisewise.measure.CompareMeasure;
+import org.noisewise.measure.GFactorMeasure;
+import org.noisewise.measure.Progress;
+import org.noisewise.measure.Roles;
+import org.noisewise.measure.StabilityMeasure;
+import org.noisewise.sample.ProtocolSamples;
+import org.noisewise.sample.StabilitySample;
 import ij.ImagePlus;
 import java.io.PrintWriter;
 import java.nio.file.Files;
@@ -83,12 +90,65 @@ public class DemoCommand implements Callable<Integer> {
         check(SampleCatalog.first(Use.MASKED));
         heading("5. Phantom QA: automatic regions, SNR, uniformity, ghosting, QA log and report");
         phantomQa();
+        heading("6. Stability of a time series (SFNR, static-noise SNR, fluctuation, drift, Weisskoff)");
+        stability();
+        heading("7. Protocols: predicted against measured SNR ratio, and the g-factor of parallel imaging");
+        protocols();
         out.println();
         out.println("Hand method = signal mean / SD of air, uncorrected: too high by 1/0.655 = 1.53x for one channel.");
         out.println("For image-quality QA and research only, not diagnosis; acceptance decisions rest with your site's");
         out.println("qualified medical physicist and local regulations.");
         out.flush();
         return 0;
+    }
+
+    /** The bundled stability series beside the truth its generator states. */
+    private void stability() throws InputException {
+        ImagePlus imp = ImageFiles.open(samples.resolve(StabilitySample.FILE));
+        var r = StabilityMeasure.run(imp, StabilitySample.FILE, null,
+                StabilityMeasure.Options.measure(new int[] {1}, 2, 21, false), null, Progress.NONE).results().get(0);
+        out.printf(Locale.ROOT, "%n%s  (%d frames used, 21x21 square on the phantom)%n", StabilitySample.FILE,
+                r.framesUsed());
+        out.printf(Locale.ROOT, ROW, "", "true", "measured", "95% interval");
+        out.printf(Locale.ROOT, ROW, "SFNR (corrected)", fmt(StabilitySample.trueSfnr()), fmt(r.sfnr()),
+                ci(r.sfnrCi95().low(), r.sfnrCi95().high()));
+        out.printf(Locale.ROOT, ROW, "static-noise SNR", fmt(StabilitySample.trueSnr()), fmt(r.snr()),
+                ci(r.snrCi95().low(), r.snrCi95().high()));
+        out.printf(Locale.ROOT, ROW, "percent fluctuation", fmt(StabilitySample.truePercentFluctuation()),
+                fmt(r.percentFluctuation()), "");
+        out.printf(Locale.ROOT, ROW, "radius of decorrelation", fmt(StabilitySample.trueRdc()), fmt(r.rdc()), "");
+    }
+
+    /** The bundled protocol series: 2 against 8 averages (predicted ratio 2), and R = 2 with a g ramp. */
+    private void protocols() throws InputException {
+        ImagePlus a = ImageFiles.open(samples.resolve(ProtocolSamples.AVG2.file()));
+        ImagePlus b = ImageFiles.open(samples.resolve(ProtocolSamples.AVG8.file()));
+        Region sig = Region.rectangle("signal", 20, 20, 24, 24, ProtocolSamples.SIZE, ProtocolSamples.SIZE);
+        var row = CompareMeasure.run(a, ProtocolSamples.AVG2.file(), b, ProtocolSamples.AVG8.file(), null, null, 1.0,
+                Roles.of(sig, List.of()), 1, new int[] {1}, Progress.NONE).rows().get(0);
+        out.printf(Locale.ROOT, "%n%s against %s (protocols from the file headers)%n", ProtocolSamples.AVG8.file(),
+                ProtocolSamples.AVG2.file());
+        out.printf(Locale.ROOT, ROW, "", "true", "measured", "95% interval");
+        out.printf(Locale.ROOT, ROW, "SNR ratio B/A (repeated method)", fmt(ProtocolSamples.AVG2.sigma()
+                / ProtocolSamples.AVG8.sigma()), fmt(((Number) row.get("ratio_measured")).doubleValue()),
+                ci(((Number) row.get("ratio_measured_ci95[0]")).doubleValue(),
+                        ((Number) row.get("ratio_measured_ci95[1]")).doubleValue()));
+        out.printf(Locale.ROOT, "  predicted from the protocols: %s (4x the averages); consistent: %s%n",
+                fmt(((Number) row.get("ratio_predicted")).doubleValue()), row.get("consistent"));
+        ImagePlus full = ImageFiles.open(samples.resolve(ProtocolSamples.FULL.file()));
+        ImagePlus acc = ImageFiles.open(samples.resolve(ProtocolSamples.ACCEL2.file()));
+        Region strip = Region.rectangle("strip x 48-53", 48, 16, 6, 32, ProtocolSamples.SIZE, ProtocolSamples.SIZE);
+        var g = GFactorMeasure.run(full, ProtocolSamples.FULL.file(), acc, ProtocolSamples.ACCEL2.file(), 2.0,
+                Roles.of(strip, List.of()), 1, new int[] {1}, null, false, Progress.NONE).rows().get(0);
+        double ms = 0;
+        for (int x = 48; x < 54; x++) {
+            ms += ProtocolSamples.g(x) * ProtocolSamples.g(x) / 6;
+        }
+        out.printf(Locale.ROOT, "%n%s against %s, R = 2, columns 48-53%n", ProtocolSamples.ACCEL2.file(),
+                ProtocolSamples.FULL.file());
+        out.printf(Locale.ROOT, ROW, "g-factor (pooled over the region)", fmt(Math.sqrt(ms)),
+                fmt(((Number) g.get("g_mean")).doubleValue()), ci(((Number) g.get("g_ci95[0]")).doubleValue(),
+                        ((Number) g.get("g_ci95[1]")).doubleValue()));
     }
 
     /**

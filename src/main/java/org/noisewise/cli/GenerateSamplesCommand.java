@@ -14,6 +14,7 @@ import java.util.concurrent.Callable;
 import org.noisewise.estimate.InputException;
 import org.noisewise.report.Formats;
 import org.noisewise.sample.SampleCatalog;
+import org.noisewise.sample.ProtocolSamples;
 import org.noisewise.sample.StabilitySample;
 import org.noisewise.sample.SampleCatalog.Rect;
 import org.noisewise.sample.SampleCatalog.Sample;
@@ -53,6 +54,10 @@ public class GenerateSamplesCommand implements Callable<Integer> {
             }
             writeStability(out);
             truth.add(stabilityTruth());
+            for (ProtocolSamples.Series ps : ProtocolSamples.ALL) {
+                writeProtocolSeries(out, ps);
+                truth.add(protocolTruth(ps));
+            }
             JsonObject root = new JsonObject();
             root.addProperty("scenario", "Invented: the imaging-physics bench of the fictional Fernhollow Institute.");
             root.addProperty("generator", "org.noisewise.sample.SampleCatalog (java -jar target/noisewise.jar generate-samples)");
@@ -85,6 +90,45 @@ public class GenerateSamplesCommand implements Callable<Integer> {
         if (!new FileSaver(imp).saveAsTiffStack(out.resolve(StabilitySample.FILE).toString())) {
             throw new InputException("could not write " + out.resolve(StabilitySample.FILE));
         }
+    }
+
+    /** A protocol sample as a hyperstack of one slice and its repeats, 32-bit, with its header lines. */
+    static void writeProtocolSeries(Path out, ProtocolSamples.Series ps) throws InputException {
+        ImageStack st = new ImageStack(ProtocolSamples.SIZE, ProtocolSamples.SIZE);
+        for (float[] frame : ps.generate()) {
+            st.addSlice(new ij.process.FloatProcessor(ProtocolSamples.SIZE, ProtocolSamples.SIZE, frame));
+        }
+        ImagePlus imp = new ImagePlus(ps.file(), st);
+        imp.setDimensions(1, 1, ps.repeats());
+        imp.setOpenAsHyperStack(true);
+        imp.setProperty("Info", ps.header());
+        imp.getCalibration().pixelWidth = ProtocolSamples.PIXEL_MM;
+        imp.getCalibration().pixelHeight = ProtocolSamples.PIXEL_MM;
+        imp.getCalibration().pixelDepth = 5.0;
+        imp.getCalibration().setUnit("mm");
+        if (!new FileSaver(imp).saveAsTiffStack(out.resolve(ps.file()).toString())) {
+            throw new InputException("could not write " + out.resolve(ps.file()));
+        }
+    }
+
+    private static JsonObject protocolTruth(ProtocolSamples.Series ps) {
+        JsonObject o = new JsonObject();
+        o.addProperty("file", ps.file());
+        o.addProperty("description", ps.description());
+        o.addProperty("use", "protocol");
+        o.addProperty("frames", ps.repeats());
+        o.addProperty("channels", 1);
+        o.addProperty("amplitude", ps.amplitude());
+        o.addProperty("sigma", ps.sigma());
+        o.addProperty("averages", ps.averages());
+        o.addProperty("acceleration", ps.acceleration());
+        if (ps.gRamp()) {
+            o.addProperty("g_profile", "1 + 0.5 x / 63 (x = column)");
+        } else {
+            o.addProperty("true_snr", ps.amplitude() / ps.sigma());
+        }
+        o.addProperty("seed", ps.seed());
+        return o;
     }
 
     private static JsonObject stabilityTruth() {

@@ -16,7 +16,8 @@ import picocli.CommandLine.Command;
                 "For image-quality QA and research; not a diagnostic device. Where results feed acceptance or "
                         + "safety decisions, defer to your site's qualified medical physicist and local regulations."},
         subcommands = {BackgroundCommand.class, DifferenceCommand.class, RepeatCommand.class, CheckCommand.class,
-                CorrectCommand.class, QaCommand.class, StabilityCommand.class, BatchCommand.class, DemoCommand.class, GenerateSamplesCommand.class,
+                CorrectCommand.class, QaCommand.class, StabilityCommand.class,
+                PredictCommand.class, CompareCommand.class, GFactorCommand.class, BatchCommand.class, DemoCommand.class, GenerateSamplesCommand.class,
                 CommandLine.HelpCommand.class})
 public class NoisewiseCli implements Runnable {
 

@@ -91,13 +91,6 @@ public class RepeatCommand implements Callable<Integer> {
     }
 
     private Path mapPath(int z, int count) {
-        if (count == 1) {
-            return map;
-        }
-        String name = map.getFileName().toString();
-        int dot = name.lastIndexOf('.');
-        String stem = dot > 0 ? name.substring(0, dot) : name;
-        String ext = dot > 0 ? name.substring(dot) : ".tif";
-        return map.resolveSibling(stem + "_z" + z + ext);
+        return OutputPaths.perZ(map, z, count);
     }
 }

@@ -165,13 +165,6 @@ public class StabilityCommand implements Callable<Integer> {
     }
 
     private static Path perSlice(Path file, int z, int count) {
-        if (count == 1) {
-            return file;
-        }
-        String name = file.getFileName().toString();
-        int dot = name.lastIndexOf('.');
-        String stem = dot > 0 ? name.substring(0, dot) : name;
-        String ext = dot > 0 ? name.substring(dot) : ".tif";
-        return file.resolveSibling(stem + "_z" + z + ext);
+        return OutputPaths.perZ(file, z, count);
     }
 }

@@ -54,7 +54,7 @@ public class BackgroundCheckCommand implements PlugIn {
             gd.addCheckbox("Replace existing files", false);
             regions.addFields(gd);
             Face.addAppend(gd);
-            gd.addHelp(Face.help("check"));
+            gd.addHelp(Face.help("Background Noise Check"));
             gd.showDialog();
             if (gd.wasCanceled()) {
                 return;

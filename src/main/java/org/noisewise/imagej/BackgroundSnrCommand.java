@@ -62,7 +62,7 @@ public class BackgroundSnrCommand implements PlugIn {
             gd.addChoice("Second acquisition (optional check):", DialogFields.otherImages(imp, NONE), NONE);
             regions.addFields(gd);
             Face.addAppend(gd);
-            gd.addHelp(Face.help("background"));
+            gd.addHelp(Face.help("SNR (Background Regions)"));
             gd.showDialog();
             if (gd.wasCanceled()) {
                 return;

@@ -60,7 +60,7 @@ public class DifferenceSnrCommand implements PlugIn {
                     BackgroundSnrCommand.CURRENT);
             regions.addFields(gd);
             Face.addAppend(gd);
-            gd.addHelp(Face.help("difference"));
+            gd.addHelp(Face.help("SNR (Two Acquisitions)"));
             gd.showDialog();
             if (gd.wasCanceled()) {
                 return;

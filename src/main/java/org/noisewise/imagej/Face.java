@@ -10,9 +10,6 @@ import ij.gui.TextRoi;
 import ij.measure.ResultsTable;
 import java.awt.Color;
 import java.awt.Font;
-import java.io.IOException;
-import java.io.InputStream;
-import java.nio.charset.StandardCharsets;
 import java.util.List;
 import org.noisewise.estimate.InputException;
 import org.noisewise.report.ResultRow;
@@ -174,15 +171,8 @@ final class Face {
         return false;
     }
 
-    /** The command's help page (HTML from the plugin jar), readable in full in a scrolling window. */
-    static String help(String page) {
-        try (InputStream in = Face.class.getResourceAsStream("/help/" + page + ".html")) {
-            if (in == null) {
-                return "<html>See the Noisewise README, section '" + page + "'.</html>";
-            }
-            return new String(in.readAllBytes(), StandardCharsets.UTF_8);
-        } catch (IOException e) {
-            return "<html>See the Noisewise README, section '" + page + "'.</html>";
-        }
+    /** The command's help: its README section, readable in full in a scrolling window. */
+    static String help(String readmeHeading) {
+        return HelpPages.html(readmeHeading);
     }
 }

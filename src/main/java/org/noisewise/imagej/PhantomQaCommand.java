@@ -75,7 +75,7 @@ public class PhantomQaCommand implements PlugIn {
             gd.addNumericField("Slice:", imp.getSlice(), 0, 4, "(z, from 1)");
             gd.addCheckbox("Repeats: the stack holds repeated acquisitions of one slice", false);
             Face.addAppend(gd);
-            gd.addHelp(Face.help("qa"));
+            gd.addHelp(Face.help("Phantom QA"));
             gd.showDialog();
             if (gd.wasCanceled()) {
                 return;

@@ -53,7 +53,7 @@ public class RepeatedSnrCommand implements PlugIn {
             gd.addCheckbox("Rician correction (always applied; kept for old macros)", true);
             regions.addFields(gd);
             Face.addAppend(gd);
-            gd.addHelp(Face.help("repeated"));
+            gd.addHelp(Face.help("SNR Map (Repeated Acquisitions)"));
             gd.showDialog();
             if (gd.wasCanceled()) {
                 return;

@@ -43,7 +43,7 @@ public class RicianCorrectionCommand implements PlugIn {
             gd.addNumericField("Window (local method):", RicianCorrection.DEFAULT_WINDOW, 0, 4, "pixels (odd)");
             regions.addFields(gd);
             Face.addAppend(gd);
-            gd.addHelp(Face.help("correction"));
+            gd.addHelp(Face.help("Rician Bias Correction"));
             gd.showDialog();
             if (gd.wasCanceled()) {
                 return;

@@ -70,7 +70,7 @@ public class StabilityCommand implements PlugIn {
             gd.addNumericField("Baseline sessions:", QaLog.DEFAULT_BASELINE, 0, 4, "(sessions)");
             regions.addFields(gd);
             Face.addAppend(gd);
-            gd.addHelp(Face.help("stability"));
+            gd.addHelp(Face.help("Stability (Time Series)"));
             gd.showDialog();
             if (gd.wasCanceled()) {
                 return;

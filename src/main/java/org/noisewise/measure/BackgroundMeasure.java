@@ -85,6 +85,7 @@ public final class BackgroundMeasure {
             rows.add(BackgroundSnrRows.row(title, n, unit, r));
         }
         progress.report(1.0, "");
+        Acquisition.addEfficiency(rows, imp, notes);
         return new Measurement(rows, List.of(), List.of(), notes);
     }
 }

@@ -44,7 +44,9 @@ public final class DifferenceMeasure {
             }
         }
         progress.report(1.0, "");
-        return new Measurement(rows, List.of(), List.of(), Measurement.imageNotes(first, second));
+        List<String> notes = Measurement.imageNotes(first, second);
+        Acquisition.addEfficiency(rows, first, notes);
+        return new Measurement(rows, List.of(), List.of(), notes);
     }
 
     /** Frames {@code a} and {@code b} (1-based) of one stack or hyperstack, per z slice. */
@@ -72,6 +74,8 @@ public final class DifferenceMeasure {
             }
         }
         progress.report(1.0, "");
-        return new Measurement(rows, List.of(), List.of(), Measurement.imageNotes(imp));
+        List<String> notes = Measurement.imageNotes(imp);
+        Acquisition.addEfficiency(rows, imp, notes);
+        return new Measurement(rows, List.of(), List.of(), notes);
     }
 }

@@ -169,6 +169,7 @@ public final class QaMeasure {
         String unit = ImagePlanes.valueUnit(first);
         String title = source != null ? source.getFileName().toString() : first.getTitle();
         ResultRow row = QaRows.row(title, o.slice(), unit, r);
+        Acquisition.addEfficiency(List.of(row), first, notes);
 
         Map<String, String> values = new LinkedHashMap<>();
         values.put("recorded_utc", Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
@@ -192,6 +193,7 @@ public final class QaMeasure {
         values.put("signal_amplitude", num(r.figures() == null ? Double.NaN : r.figures().amplitude()));
         values.put("sigma", num(r.sigma()));
         values.put("signal_mean", num(r.signalMean()));
+        values.put("snr_efficiency", row.get("snr_efficiency") instanceof Number e ? num(e.doubleValue()) : "");
         values.put("uniformity_piu", num(r.piu()));
         values.put("nema_nonuniformity_percent", num(r.nemaNonUniformity()));
         values.put("ghosting_percent", num(r.ghostingPercent()));

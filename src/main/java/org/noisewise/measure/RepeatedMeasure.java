@@ -55,6 +55,8 @@ public final class RepeatedMeasure {
             }
         }
         progress.report(1.0, "");
-        return new Measurement(rows, images, List.of(), Measurement.imageNotes(imp));
+        List<String> notes = Measurement.imageNotes(imp);
+        Acquisition.addEfficiency(rows, imp, notes);
+        return new Measurement(rows, images, List.of(), notes);
     }
 }

@@ -83,7 +83,8 @@ class BatchCommandTest {
         float[] px = (float[]) imp.getProcessor().getPixels();
         var result = BackgroundSnr.analyze(px, 96, 96, org.noisewise.estimate.Region.rectangle("s", 38, 38, 20, 20, 96, 96),
                 List.of(org.noisewise.estimate.Region.rectangle("b", 1, 1, 14, 14, 96, 96)), BackgroundSnr.Options.defaults());
-        List<String> tableHeadings = BackgroundSnrRows.row("x", 1, "a.u.", result).headings();
+        List<String> tableHeadings = org.noisewise.report.ProtocolRows.addEfficiency(
+                BackgroundSnrRows.row("x", 1, "a.u.", result), null).headings();
         String expected = String.join(",", tableHeadings.stream()
                 .map(h -> h.contains(",") ? '"' + h + '"' : h).toList()) + ",Status,Error";
         assertEquals(expected, lines.get(0));

@@ -41,8 +41,14 @@ class SampleImagesTest {
     void truthFileMatchesTheCatalog() throws IOException {
         JsonObject root = JsonParser.parseString(Files.readString(DIR.resolve("truth.json"))).getAsJsonObject();
         JsonArray samples = root.getAsJsonArray("samples");
-        assertEquals(SampleCatalog.SAMPLES.size() + 1, samples.size(), "the image samples and the stability series");
-        JsonObject st = samples.get(samples.size() - 1).getAsJsonObject();
+        assertEquals(SampleCatalog.SAMPLES.size() + 1 + ProtocolSamples.ALL.size(), samples.size(),
+                "the image samples, the stability series and the protocol series");
+        JsonObject st = samples.get(SampleCatalog.SAMPLES.size()).getAsJsonObject();
+        for (int i = 0; i < ProtocolSamples.ALL.size(); i++) {
+            JsonObject o = samples.get(SampleCatalog.SAMPLES.size() + 1 + i).getAsJsonObject();
+            assertEquals(ProtocolSamples.ALL.get(i).file(), o.get("file").getAsString());
+            assertEquals(ProtocolSamples.ALL.get(i).sigma(), o.get("sigma").getAsDouble());
+        }
         assertEquals(org.noisewise.sample.StabilitySample.FILE, st.get("file").getAsString());
         assertEquals(org.noisewise.sample.StabilitySample.trueSfnr(), st.get("true_sfnr").getAsDouble());
         for (int i = 0; i < SampleCatalog.SAMPLES.size(); i++) {
@@ -121,5 +127,48 @@ class SampleImagesTest {
         assertTrue(r.snrCi95().contains(org.noisewise.sample.StabilitySample.trueSnr()), r.snrCi95().toString());
         assertEquals(100, r.framesUsed());
         assertEquals(2.0, r.repetitionSeconds(), 1e-12);
+    }
+
+    /**
+     * The bundled protocol series are what their generator makes, their headers state the protocol, and
+     * the measured ratio of the 8- and 2-average series contains the true ratio 2 (sigma 4 against 8),
+     * which is also the prediction (four times the averages); the g-factor over a strip of the accelerated
+     * series is within 3% of the RMS of the generated ramp there.
+     */
+    @Test
+    void protocolSeriesCompareAndGFactor() throws InputException {
+        for (ProtocolSamples.Series ps : ProtocolSamples.ALL) {
+            ImagePlus imp = ImageFiles.open(DIR.resolve(ps.file()));
+            float[][] frames = ps.generate();
+            assertEquals(frames.length, imp.getNFrames(), ps.file());
+            for (int t = 0; t < frames.length; t++) {
+                assertArrayEquals(frames[t], (float[]) imp.getStack().getPixels(t + 1), ps.file() + " frame " + t);
+            }
+        }
+        ImagePlus a = ImageFiles.open(DIR.resolve(ProtocolSamples.AVG2.file()));
+        ImagePlus b = ImageFiles.open(DIR.resolve(ProtocolSamples.AVG8.file()));
+        org.noisewise.estimate.Region sig = org.noisewise.estimate.Region.rectangle("signal", 20, 20, 24, 24, 64, 64);
+        var m = org.noisewise.measure.CompareMeasure.run(a, "avg2", b, "avg8", null, null, 1.0,
+                org.noisewise.measure.Roles.of(sig, java.util.List.of()), 1, new int[] {1},
+                org.noisewise.measure.Progress.NONE);
+        var row = m.rows().get(0);
+        assertEquals(2.0, ((Number) row.get("ratio_predicted")).doubleValue(), 1e-12);
+        double lo = ((Number) row.get("ratio_measured_ci95[0]")).doubleValue();
+        double hi = ((Number) row.get("ratio_measured_ci95[1]")).doubleValue();
+        assertTrue(lo < 2 && hi > 2, lo + " - " + hi);
+        assertEquals("yes", row.get("consistent"));
+
+        ImagePlus full = ImageFiles.open(DIR.resolve(ProtocolSamples.FULL.file()));
+        ImagePlus acc = ImageFiles.open(DIR.resolve(ProtocolSamples.ACCEL2.file()));
+        org.noisewise.estimate.Region strip = org.noisewise.estimate.Region.rectangle("strip", 48, 16, 6, 32, 64, 64);
+        var g = org.noisewise.measure.GFactorMeasure.run(full, "full", acc, "accel", 2.0,
+                org.noisewise.measure.Roles.of(strip, java.util.List.of()), 1, new int[] {1}, null, false,
+                org.noisewise.measure.Progress.NONE);
+        double ms = 0;
+        for (int x = 48; x < 54; x++) {
+            ms += ProtocolSamples.g(x) * ProtocolSamples.g(x) / 6;
+        }
+        double truth = Math.sqrt(ms);
+        assertEquals(truth, ((Number) g.rows().get(0).get("g_mean")).doubleValue(), 0.03 * truth);
     }
 }

@@ -17,9 +17,28 @@ public final class DicomEdit {
     private DicomEdit() {
     }
 
+    /** Returns a copy with a binary element of unsigned shorts (VR US), e.g. the acquisition matrix 0018,1310. */
+    public static byte[] setUs(byte[] dicom, int group, int element, int... values) {
+        ByteBuffer v = ByteBuffer.allocate(2 * values.length).order(ByteOrder.LITTLE_ENDIAN);
+        for (int x : values) {
+            v.putShort((short) x);
+        }
+        return put(dicom, group, element, "US", v.array());
+    }
+
+    /** Returns a copy with a binary element of doubles (VR FD), e.g. a parallel reduction factor. */
+    public static byte[] setFd(byte[] dicom, int group, int element, double value) {
+        return put(dicom, group, element, "FD", ByteBuffer.allocate(8).order(ByteOrder.LITTLE_ENDIAN).putDouble(value)
+                .array());
+    }
+
     /** Returns a copy of {@code dicom} with element (group, element) set to {@code value} with VR {@code vr}. */
     public static byte[] set(byte[] dicom, int group, int element, String vr, String value) {
         String v = value.length() % 2 == 1 ? value + " " : value;
+        return put(dicom, group, element, vr, v.getBytes(StandardCharsets.US_ASCII));
+    }
+
+    private static byte[] put(byte[] dicom, int group, int element, String vr, byte[] v) {
         ByteBuffer b = ByteBuffer.wrap(dicom).order(ByteOrder.LITTLE_ENDIAN);
         int pos = 132;
         long target = ((long) group << 16) | element;
@@ -51,8 +70,7 @@ public final class DicomEdit {
         throw new IllegalArgumentException("no place found for the element");
     }
 
-    private static byte[] element(int group, int element, String vr, String value) {
-        byte[] text = value.getBytes(StandardCharsets.US_ASCII);
+    private static byte[] element(int group, int element, String vr, byte[] text) {
         ByteBuffer b = ByteBuffer.allocate(8 + text.length).order(ByteOrder.LITTLE_ENDIAN);
         b.putShort((short) group).putShort((short) element);
         b.put(vr.getBytes(StandardCharsets.US_ASCII)).putShort((short) text.length).put(text);

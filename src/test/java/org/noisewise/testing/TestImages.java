@@ -1,8 +1,10 @@
 package org.noisewise.testing;
 
 import ij.ImagePlus;
-import ij.io.FileSaver;
+import ij.ImageStack;
 import ij.process.FloatProcessor;
+import java.util.SplittableRandom;
+import ij.io.FileSaver;
 import ij.process.ImageProcessor;
 import java.nio.file.Path;
 import java.security.MessageDigest;
@@ -52,4 +54,21 @@ public final class TestImages {
             throw new IllegalStateException(e);
         }
     }
+    /** K repeats of a 64x64 uniform square (A inside a 40x40 square) with per-column noise sigma(x). */
+    public static ImagePlus squareSeries(String title, int k, double a, java.util.function.IntToDoubleFunction sigma, long seed) {
+        SplittableRandom rng = new SplittableRandom(seed);
+        ImageStack st = new ImageStack(64, 64);
+        for (int t = 0; t < k; t++) {
+            float[] px = new float[64 * 64];
+            for (int y = 0; y < 64; y++) {
+                for (int x = 0; x < 64; x++) {
+                    boolean in = x >= 12 && x < 52 && y >= 12 && y < 52;
+                    px[y * 64 + x] = (float) NoiseFields.magnitude(rng, in ? a : 0, sigma.applyAsDouble(x), 1);
+                }
+            }
+            st.addSlice(new FloatProcessor(64, 64, px));
+        }
+        return new ImagePlus(title, st);
+    }
+
 }

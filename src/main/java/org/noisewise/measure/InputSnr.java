@@ -1,0 +1,74 @@
+package org.noisewise.measure;
+
+import ij.ImagePlus;
+import java.util.List;
+import org.noisewise.diagnose.BackgroundSnr;
+import org.noisewise.diagnose.BackgroundSnrResult;
+import org.noisewise.diagnose.Verdict;
+import org.noisewise.estimate.CorrectedSnr;
+import org.noisewise.estimate.DifferenceSnr;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Region;
+import org.noisewise.estimate.RepeatedAcquisitions;
+import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.io.BackgroundValues;
+import org.noisewise.io.ImageMetadata;
+import org.noisewise.io.ImagePlanes;
+import org.noisewise.io.RepeatedMaps;
+import org.noisewise.io.StackPlanes;
+
+/**
+ * One input's corrected SNR by the method its shape allows: repeated acquisitions for a series of three
+ * or more frames, the difference method for a pair, the background method (with its verdict) for a single
+ * image. Shared by protocol comparison and the g-factor.
+ *
+ * @param method  {@code repeated}, {@code difference} or {@code background}
+ * @param figures the corrected amplitude, sigma and SNR
+ * @param repeats frames per z slice (1 for a single image)
+ */
+record InputSnr(String method, CorrectedSnr figures, int repeats) {
+
+    /** The kind of input an image is: its frame count per z slice. */
+    static String kind(ImagePlus imp) {
+        int k = StackPlanes.repeatCount(imp);
+        return k >= 3 ? "repeated" : k == 2 ? "difference" : "background";
+    }
+
+    /** Temporal maps of z slice {@code z} (for a pair, K = 2). */
+    static RepeatedAcquisitions.Maps maps(ImagePlus imp, int z) throws InputException {
+        return RepeatedMaps.compute(imp, z);
+    }
+
+    /**
+     * @param maps the slice's temporal maps when already computed (series), else null
+     */
+    static InputSnr measure(ImagePlus imp, String title, int z, Region signal, List<Region> background, int channels,
+                            RepeatedAcquisitions.Maps maps) throws InputException {
+        ImagePlanes.requireGrayscale(imp);
+        int k = StackPlanes.repeatCount(imp);
+        if (k >= 3) {
+            RepeatedAcquisitions.Maps m = maps != null ? maps : RepeatedMaps.compute(imp, z);
+            return new InputSnr("repeated", RepeatedAcquisitions.summarize(m, RepeatedMaps.frames(imp, z), signal,
+                    channels).figures(), k);
+        }
+        if (k == 2) {
+            float[] a = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, 1));
+            float[] b = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, 2));
+            return new InputSnr("difference", DifferenceSnr.analyze(a, b, imp.getWidth(), signal, channels).figures(), 2);
+        }
+        if (background.isEmpty()) {
+            throw new InputException("'" + title + "' is a single image, so its SNR comes from background regions: give "
+                    + "background regions in air, or use a pair or a series of repeated acquisitions");
+        }
+        int plane = z;
+        BackgroundSnrResult r = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, plane), imp.getWidth(),
+                imp.getHeight(), signal, background, new BackgroundSnr.Options(channels, SigmaEstimator.ML,
+                        ImageMetadata.phaseDirection(imp), BackgroundValues.storage(imp, plane)));
+        if (r.figures() == null || r.verdict() == Verdict.INVALID) {
+            throw new InputException("the background of '" + title + "' is not valid for an SNR ("
+                    + String.join("; ", r.diagnosis().reasons().stream().map(w -> w.message()).toList())
+                    + "): measure with a pair or a series of repeated acquisitions instead");
+        }
+        return new InputSnr("background (" + r.verdict().key() + ")", r.figures(), 1);
+    }
+}

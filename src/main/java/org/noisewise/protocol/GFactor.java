@@ -1,0 +1,168 @@
+package org.noisewise.protocol;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import org.noisewise.estimate.CorrectedSnr;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Interval;
+import org.noisewise.estimate.Levels;
+import org.noisewise.estimate.Region;
+import org.noisewise.estimate.Warning;
+
+/**
+ * The g-factor of parallel imaging, {@code g = SNR_full / (SNR_accelerated sqrt(R))} (Pruessmann et al.
+ * 1999, MRM 42:952), per pixel from temporal mean and SD maps of repeated acquisitions and over a region
+ * from the corrected SNRs of the two acquisitions.
+ *
+ * <p>The pixel map divides the two SNR maps; with K repeats a pixel's SD has {@code K - 1} degrees of
+ * freedom, so the map is smoothed when asked: the variance maps are averaged over a {@code w x w} window
+ * (edges clamped), worth {@code (K - 1) w^2} degrees of freedom for uncorrelated noise. The relative SD of
+ * a pixel value is then about {@code sqrt(1/(2 nu_full) + 1/(2 nu_accel))} (closed form for a ratio of two
+ * independent sample SDs, first order).
+ */
+public final class GFactor {
+
+    /** The pixel-map precision (relative SD) below which no warning is given. */
+    public static final double TARGET_PRECISION = 0.10;
+
+    private GFactor() {
+    }
+
+    /** A region's g-factor. */
+    public record Result(double g, Interval ci95, double gMax, double pixelMapMean, double acceleration,
+                         double pixelPrecision, int repeatsNeeded, List<Warning> warnings) {
+        public Result {
+            warnings = List.copyOf(warnings);
+        }
+    }
+
+    /**
+     * The pixel map {@code (mean_f / sd_f) / ((mean_a / sd_a) sqrt(R))}, variances averaged over a
+     * {@code window x window} square; NaN where either SD is 0 or a mean is not positive.
+     */
+    public static float[] map(float[] meanFull, float[] sdFull, float[] meanAccel, float[] sdAccel, int width,
+                              int height, double acceleration, int window) throws InputException {
+        int n = width * height;
+        if (meanFull.length != n || sdFull.length != n || meanAccel.length != n || sdAccel.length != n) {
+            throw new InputException("the two acquisitions differ in size: the g-factor compares the same slices at "
+                    + "the same matrix");
+        }
+        if (window < 1 || window % 2 == 0) {
+            throw new InputException("the smoothing window must be an odd whole number of pixels (1, 3, 5, ...), was "
+                    + window);
+        }
+        float[] vf = boxMeanOfSquares(sdFull, width, height, window);
+        float[] va = boxMeanOfSquares(sdAccel, width, height, window);
+        float[] g = new float[n];
+        double root = Math.sqrt(acceleration);
+        for (int i = 0; i < n; i++) {
+            double snrF = meanFull[i] / Math.sqrt(vf[i]);
+            double snrA = meanAccel[i] / Math.sqrt(va[i]);
+            g[i] = meanFull[i] > 0 && meanAccel[i] > 0 && vf[i] > 0 && va[i] > 0
+                    ? (float) (snrF / (snrA * root)) : Float.NaN;
+        }
+        return g;
+    }
+
+    /** The mean of {@code v^2} over a {@code w x w} square about each pixel (clamped at the edges). */
+    static float[] boxMeanOfSquares(float[] v, int width, int height, int w) {
+        int n = width * height;
+        double[] sq = new double[n];
+        for (int i = 0; i < n; i++) {
+            sq[i] = (double) v[i] * v[i];
+        }
+        if (w == 1) {
+            float[] out = new float[n];
+            for (int i = 0; i < n; i++) {
+                out[i] = (float) sq[i];
+            }
+            return out;
+        }
+        int r = w / 2;
+        double[] rows = new double[n];
+        for (int y = 0; y < height; y++) {
+            for (int x = 0; x < width; x++) {
+                double s = 0;
+                int c = 0;
+                for (int k = Math.max(0, x - r); k <= Math.min(width - 1, x + r); k++) {
+                    s += sq[y * width + k];
+                    c++;
+                }
+                rows[y * width + x] = s / c;
+            }
+        }
+        float[] out = new float[n];
+        for (int y = 0; y < height; y++) {
+            for (int x = 0; x < width; x++) {
+                double s = 0;
+                int c = 0;
+                for (int k = Math.max(0, y - r); k <= Math.min(height - 1, y + r); k++) {
+                    s += rows[k * width + x];
+                    c++;
+                }
+                out[y * width + x] = (float) (s / c);
+            }
+        }
+        return out;
+    }
+
+    /** Relative SD of one pixel of the map: {@code sqrt(1/(2 nu_f) + 1/(2 nu_a))}, {@code nu = (K - 1) w^2}. */
+    public static double pixelPrecision(int repeatsFull, int repeatsAccel, int window) {
+        double nf = (repeatsFull - 1.0) * window * window;
+        double na = (repeatsAccel - 1.0) * window * window;
+        return Math.sqrt(1 / (2 * nf) + 1 / (2 * na));
+    }
+
+    /** Repeats of each acquisition that give the pixel map {@link #TARGET_PRECISION} at this window. */
+    public static int repeatsNeeded(int window) {
+        // sqrt(2 / (2 (K - 1) w^2)) <= p  <=>  K >= 1 + 1 / (p^2 w^2)
+        return 1 + (int) Math.ceil(1.0 / (TARGET_PRECISION * TARGET_PRECISION * window * window) - 1e-9);
+    }
+
+    /**
+     * The region's g-factor from the corrected SNRs of the full and the accelerated acquisition; the
+     * interval is log-normal with the SNRs' log standard errors added in quadrature. {@code gMax} and
+     * {@code pixelMapMean} come from the pixel map over the region.
+     */
+    public static Result region(CorrectedSnr full, CorrectedSnr accel, double acceleration, float[] map, Region region,
+                                int repeatsFull, int repeatsAccel, int window) throws InputException {
+        if (!(acceleration >= 1) || !Double.isFinite(acceleration)) {
+            throw new InputException("the acceleration factor R must be 1 or more, was " + acceleration);
+        }
+        if (!(full.snr() > 0) || !(accel.snr() > 0)) {
+            throw new InputException("the " + (full.snr() > 0 ? "accelerated" : "full") + " acquisition has no "
+                    + "measurable signal in region '" + region.name() + "' (SNR 0): place the region on the object");
+        }
+        double g = full.snr() / (accel.snr() * Math.sqrt(acceleration));
+        double se = Math.hypot(CorrectedSnr.logSe(full.snrCi95()), CorrectedSnr.logSe(accel.snrCi95()));
+        Interval ci = Double.isFinite(se) ? new Interval(g * Math.exp(-Levels.Z95 * se), g * Math.exp(Levels.Z95 * se))
+                : new Interval(Double.NaN, Double.NaN);
+        double max = Double.NaN;
+        double sum = 0;
+        int count = 0;
+        for (int i : region.indices()) {
+            float v = map[i];
+            if (Float.isFinite(v)) {
+                max = Double.isNaN(max) ? v : Math.max(max, v);
+                sum += v;
+                count++;
+            }
+        }
+        double precision = pixelPrecision(repeatsFull, repeatsAccel, window);
+        int needed = repeatsNeeded(window);
+        List<Warning> w = new ArrayList<>();
+        if (precision > TARGET_PRECISION) {
+            w.add(new Warning("few_repeats", String.format(Locale.ROOT, "the pixel map is noisy: with %d and %d "
+                    + "repeats and a %dx%d window each pixel's g is uncertain by about %.0f%% (1 SD), so g_max is "
+                    + "biased upward; %d repeats of each acquisition (or a wider --window) give %.0f%%; the region "
+                    + "value g_mean pools every pixel and is not affected", repeatsFull, repeatsAccel, window, window,
+                    100 * precision, needed, 100 * TARGET_PRECISION)));
+        }
+        if (g < 1 && ci.high() < 1) {
+            w.add(new Warning("g_below_one", "g is below 1 beyond its interval: the two acquisitions differ in more "
+                    + "than acceleration (reconstruction filter, scaling, coil), or R is wrong"));
+        }
+        return new Result(g, ci, max, count > 0 ? sum / count : Double.NaN, acceleration, precision, needed, w);
+    }
+}

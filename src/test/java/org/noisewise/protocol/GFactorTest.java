@@ -1,0 +1,140 @@
+package org.noisewise.protocol;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.SplittableRandom;
+import org.junit.jupiter.api.Test;
+import org.noisewise.estimate.CorrectedSnr;
+import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.Interval;
+import org.noisewise.estimate.Region;
+import org.noisewise.estimate.RepeatedAcquisitions;
+import org.noisewise.testing.NoiseFields;
+
+/** g = SNR_full / (SNR_accelerated sqrt(R)) (Pruessmann et al. 1999) from repeated series with a known g profile. */
+class GFactorTest {
+
+    static final int W = 64;
+    static final double A = 200;
+    static final double SIGMA = 4;
+    static final double R = 2;
+
+    /** The g profile of the simulation: a ramp from 1 at x = 0 to 1.5 at x = W - 1. */
+    static double g(int x) {
+        return 1 + 0.5 * x / (W - 1.0);
+    }
+
+    /** K repeats of a uniform object; the accelerated series has noise sigma g(x) sqrt(R) (and the same A). */
+    static float[][] series(SplittableRandom rng, int k, boolean accelerated) {
+        float[][] f = new float[k][W * W];
+        for (int t = 0; t < k; t++) {
+            for (int y = 0; y < W; y++) {
+                for (int x = 0; x < W; x++) {
+                    double s = accelerated ? SIGMA * g(x) * Math.sqrt(R) : SIGMA;
+                    f[t][y * W + x] = (float) NoiseFields.magnitude(rng, A, s, 1);
+                }
+            }
+        }
+        return f;
+    }
+
+    @Test
+    void rampRecoveredWithinThreePercent() throws InputException {
+        SplittableRandom rng = new SplittableRandom(77);
+        int k = 16;
+        float[][] full = series(rng, k, false);
+        float[][] acc = series(rng, k, true);
+        RepeatedAcquisitions.Maps mf = RepeatedAcquisitions.maps(full, W, W, p -> { });
+        RepeatedAcquisitions.Maps ma = RepeatedAcquisitions.maps(acc, W, W, p -> { });
+        float[] map = GFactor.map(mf.mean(), mf.sd(), ma.mean(), ma.sd(), W, W, R, 1);
+        for (int x0 : new int[] {4, 28, 52}) {
+            Region reg = Region.rectangle("strip", x0, 8, 8, 48, W, W);
+            CorrectedSnr sf = RepeatedAcquisitions.summarize(mf, RepeatedAcquisitions.Frames.of(full), reg, 1).figures();
+            CorrectedSnr sa = RepeatedAcquisitions.summarize(ma, RepeatedAcquisitions.Frames.of(acc), reg, 1).figures();
+            GFactor.Result r = GFactor.region(sf, sa, R, map, reg, k, k, 1);
+            // pooled sigma over the strip: the RMS of g there [closed form]
+            double ms = 0;
+            for (int x = x0; x < x0 + 8; x++) {
+                ms += g(x) * g(x) / 8;
+            }
+            double truth = Math.sqrt(ms);
+            assertEquals(truth, r.g(), 0.03 * truth, "strip at x = " + x0);
+            assertTrue(r.ci95().contains(truth), r.ci95() + " against " + truth);
+            // the pixel map is a ratio of two SDs of 15 degrees of freedom each: E[s_a / s_f] is
+            // about 1.035 times the truth (closed form for chi variates), so its mean is checked within 8%
+            assertEquals(truth, r.pixelMapMean(), 0.08 * truth, "map mean at x = " + x0);
+            assertTrue(r.gMax() > r.pixelMapMean());
+        }
+        // 16 repeats: each pixel uncertain by sqrt(1/30 + 1/30) = 25.8% -> a warning naming 101 repeats
+        GFactor.Result r = GFactor.region(
+                RepeatedAcquisitions.summarize(mf, RepeatedAcquisitions.Frames.of(full),
+                        Region.rectangle("c", 20, 20, 20, 20, W, W), 1).figures(),
+                RepeatedAcquisitions.summarize(ma, RepeatedAcquisitions.Frames.of(acc),
+                        Region.rectangle("c", 20, 20, 20, 20, W, W), 1).figures(), R, map,
+                Region.rectangle("c", 20, 20, 20, 20, W, W), k, k, 1);
+        assertEquals(Math.sqrt(2.0 / 30), r.pixelPrecision(), 1e-12);
+        assertEquals(101, r.repeatsNeeded());
+        assertTrue(r.warnings().stream().anyMatch(w -> w.code().equals("few_repeats")
+                && w.message().contains("101")), r.warnings().toString());
+    }
+
+    /** A window of 5x5 pixels makes the map 25 times as many degrees of freedom: repeats needed 1 + 100/25 = 5. */
+    @Test
+    void windowSmoothsTheMap() throws InputException {
+        assertEquals(5, GFactor.repeatsNeeded(5));
+        assertEquals(2, GFactor.repeatsNeeded(11));
+        SplittableRandom rng = new SplittableRandom(78);
+        float[][] full = series(rng, 2, false);
+        float[][] acc = series(rng, 2, true);
+        RepeatedAcquisitions.Maps mf = RepeatedAcquisitions.maps(full, W, W, p -> { });
+        RepeatedAcquisitions.Maps ma = RepeatedAcquisitions.maps(acc, W, W, p -> { });
+        float[] raw = GFactor.map(mf.mean(), mf.sd(), ma.mean(), ma.sd(), W, W, R, 1);
+        float[] smooth = GFactor.map(mf.mean(), mf.sd(), ma.mean(), ma.sd(), W, W, R, 9);
+        // a strip in the middle of the ramp: the smoothed map's SD across pixels is far below the raw one's
+        double sdRaw = spread(raw, 28, 36);
+        double sdSmooth = spread(smooth, 28, 36);
+        assertTrue(sdSmooth < sdRaw / 3, sdSmooth + " vs " + sdRaw);
+        assertThrows(InputException.class, () -> GFactor.map(mf.mean(), mf.sd(), ma.mean(), ma.sd(), W, W, R, 4));
+    }
+
+    private static double spread(float[] m, int x0, int x1) {
+        double s = 0;
+        double s2 = 0;
+        int n = 0;
+        for (int y = 10; y < W - 10; y++) {
+            for (int x = x0; x < x1; x++) {
+                double v = m[y * W + x];
+                if (Double.isFinite(v)) {
+                    s += v;
+                    s2 += v * v;
+                    n++;
+                }
+            }
+        }
+        double mean = s / n;
+        return Math.sqrt(s2 / n - mean * mean);
+    }
+
+    @Test
+    void badInput() throws InputException {
+        CorrectedSnr ok = CorrectedSnr.meanAndSd(100, 0.1, 5, 0.01, 1);
+        float[] map = new float[W * W];
+        Region reg = Region.rectangle("r", 0, 0, 4, 4, W, W);
+        InputException e = assertThrows(InputException.class, () -> GFactor.region(ok, ok, 0.5, map, reg, 4, 4, 1));
+        assertTrue(e.getMessage().contains("at least 1") || e.getMessage().contains("1 or more"), e.getMessage());
+        assertThrows(InputException.class, () -> GFactor.map(new float[4], new float[4], new float[5], new float[5],
+                2, 2, 2, 1));
+        // the closed form on exact figures: SNR 20 and 10 at R = 2 -> g = 20 / (10 sqrt 2)
+        CorrectedSnr f = new CorrectedSnr(100, new Interval(99, 101), 5, new Interval(4.9, 5.1), 20,
+                new Interval(19, 21), 20, new Interval(19, 21), 1, java.util.List.of());
+        CorrectedSnr a = new CorrectedSnr(100, new Interval(99, 101), 10, new Interval(9.8, 10.2), 10,
+                new Interval(9.5, 10.5), 10, new Interval(9.5, 10.5), 1, java.util.List.of());
+        try {
+            assertEquals(20 / (10 * Math.sqrt(2)), GFactor.region(f, a, 2, map, reg, 50, 50, 1).g(), 1e-12);
+        } catch (InputException ex) {
+            throw new AssertionError(ex);
+        }
+    }
+}

@@ -1,12 +1,12 @@
 package org.noisewise.cli;
 
+import org.noisewise.report.BuildInfo;
 import picocli.CommandLine.IVersionProvider;
 
-/** Version from the jar manifest, or "development". */
+/** The build's version, licence and how to cite. */
 public class Version implements IVersionProvider {
     @Override
     public String[] getVersion() {
-        String v = Version.class.getPackage().getImplementationVersion();
-        return new String[] {"noisewise " + (v == null ? "development build" : v)};
+        return new String[] {"noisewise " + BuildInfo.version() + " (MIT licence)", "How to cite: " + BuildInfo.citation()};
     }
 }

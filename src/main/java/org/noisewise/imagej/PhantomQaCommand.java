@@ -36,7 +36,8 @@ import org.noisewise.report.QaRows;
  * ([Automatic] or [ROI Manager]), {@code fraction}, {@code channels} (L or auto), {@code phase},
  * {@code limits} (apply published action limits), {@code field} (tesla, 0 = from DICOM),
  * {@code scanner}, {@code coil}, {@code protocol}, {@code baseline}, {@code log} and {@code report}
- * (file paths, optional), {@code replace} (replace an existing report and trend files), {@code slice},
+ * (file paths, optional), {@code trends} (a folder for one trend PNG per metric; needs a log),
+ * {@code replace} (replace an existing report and trend files), {@code slice},
  * {@code repeats} (a plain stack holds repeats of one slice, not z slices), {@code append}.
  */
 public class PhantomQaCommand implements PlugIn {
@@ -71,6 +72,7 @@ public class PhantomQaCommand implements PlugIn {
             gd.addNumericField("Baseline sessions:", 5, 0, 4, "(sessions)");
             gd.addStringField("Log file (CSV, optional):", "", 30);
             gd.addStringField("Report file (HTML, optional):", "", 30);
+            gd.addStringField("Trends folder (a PNG per metric, needs a log; optional):", "", 30);
             gd.addCheckbox("Replace existing files (report, trend plots)", false);
             gd.addNumericField("Slice:", imp.getSlice(), 0, 4, "(z, from 1)");
             gd.addCheckbox("Repeats: the stack holds repeated acquisitions of one slice", false);
@@ -93,6 +95,7 @@ public class PhantomQaCommand implements PlugIn {
             int baseline = (int) Math.round(gd.getNextNumber());
             String log = gd.getNextString().trim();
             String report = gd.getNextString().trim();
+            String trends = gd.getNextString().trim();
             boolean replace = gd.getNextBoolean();
             int slice = (int) Math.round(gd.getNextNumber());
             boolean repeats = gd.getNextBoolean();
@@ -110,7 +113,8 @@ public class PhantomQaCommand implements PlugIn {
             QaMeasure.Options o = new QaMeasure.Options(fraction, phase, channels, field > 0 ? field : null, limits,
                     scanner.isEmpty() ? null : scanner, coil.isEmpty() ? null : coil,
                     protocol.isEmpty() ? null : protocol, baseline, log.isEmpty() ? null : Path.of(log),
-                    report.isEmpty() ? null : Path.of(report), replace, slice, null, repeats);
+                    report.isEmpty() ? null : Path.of(report), replace, slice, trends.isEmpty() ? null : Path.of(trends),
+                    repeats);
             QaMeasure.Outcome out = process(imp, second, placement, o);
             Face.show(TITLE, imp, List.of(out.row()), append);
             Face.log(TITLE, out.notes());

@@ -238,4 +238,87 @@ class FijiFaceTest {
             assertTrue(html.length() > 800, p[0] + " help is cut short");
         }
     }
+
+    /**
+     * The image type and the regions are checked before any dialog opens: run without options (as from the
+     * menu), a dialog would block this test; instead the message lands in the Log at once, in Fiji's words.
+     */
+    @Test
+    void wrongInputIsRefusedBeforeTheDialog() {
+        ImagePlus rgb = new ImagePlus("screenshot", new ij.process.ColorProcessor(64, 64));
+        rgb.show();
+        for (String cmd : new String[] {"SNR (Background Regions)...", "SNR (Two Acquisitions)...",
+                "SNR Map (Repeated Acquisitions)...", "Background Noise Check...", "Rician Bias Correction...",
+                "Phantom QA...", "Stability (Time Series)...", "Compare Protocols...", "g-Factor Map..."}) {
+            IJ.log("\\Clear");
+            IJ.redirectErrorMessages();
+            try {
+                IJ.run(rgb, cmd, "");
+            } catch (RuntimeException expectedMacroCancel) {
+                // ImageJ cancels the macro after reporting the error
+            }
+            String log = String.valueOf(IJ.getLog());
+            assertTrue(log.contains("colour image"), cmd + ": " + log);
+            assertFalse(log.contains("--"), cmd + " speaks of command-line flags: " + log);
+        }
+        rgb.close();
+        ImagePlus plain = TestImages.phantom("no regions", 100, 4, 1, 3);
+        plain.show();
+        for (String cmd : new String[] {"SNR (Background Regions)...", "Background Noise Check..."}) {
+            IJ.log("\\Clear");
+            IJ.redirectErrorMessages();
+            try {
+                IJ.run(plain, cmd, "");
+            } catch (RuntimeException expectedMacroCancel) {
+                // as above
+            }
+            String log = String.valueOf(IJ.getLog());
+            assertTrue(log.contains("ROI Manager"), cmd + ": " + log);
+        }
+    }
+
+    /** With {@code append}, a macro loop over images collects its rows in one table. */
+    @Test
+    void appendCollectsRowsAcrossImages() {
+        add(new Roi(38, 38, 20, 20), "signal");
+        add(new Roi(1, 1, 14, 14), "background");
+        for (int k = 0; k < 3; k++) {
+            ImagePlus imp = TestImages.phantom("week " + k, 100, 4, 1, 20 + k);
+            imp.show();
+            IJ.run(imp, "SNR (Background Regions)...", "channels=1 estimator=[Maximum likelihood] "
+                    + "slices=[Current slice] append");
+        }
+        ResultsTable rt = ResultsTable.getResultsTable("Noisewise SNR (Background Regions)");
+        assertNotNull(rt);
+        assertEquals(3, rt.size());
+        assertEquals("week 2", rt.getStringValue("Image", 2));
+    }
+
+    /** Rerunning Phantom QA on the regions it placed (from the ROI Manager) gives the same SNR: nothing is rounded. */
+    @Test
+    void phantomQaRegionsRoundTripThroughTheRoiManager() {
+        ImagePlus a = IJ.openImage("sample-images/aster_disk_1ch.tif");
+        a.show();
+        String base = "second=None fraction=0.75 channels=1 phase=Unknown baseline=5 slice=1";
+        IJ.run(a, "Phantom QA...", base + " regions=Automatic append");
+        IJ.run(a, "Phantom QA...", base + " regions=[ROI Manager] append");
+        ResultsTable rt = ResultsTable.getResultsTable("Noisewise Phantom QA");
+        assertNotNull(rt, String.valueOf(IJ.getLog()));
+        assertEquals(2, rt.size());
+        assertEquals(rt.getValue("SNR (corrected)", 0), rt.getValue("SNR (corrected)", 1), 1e-9);
+        assertEquals(rt.getValue("Signal pixels", 0), rt.getValue("Signal pixels", 1));
+    }
+
+    /** Fiji offers what the command line offers: trend plots per metric next to the QA log (CLI --trends). */
+    @Test
+    void phantomQaWritesTrendPlotsFromFiji() throws Exception {
+        ImagePlus a = IJ.openImage("sample-images/aster_disk_1ch.tif");
+        a.show();
+        Path log = dir.resolve("log.csv");
+        Path trends = Files.createDirectory(dir.resolve("trends"));
+        IJ.run(a, "Phantom QA...", "second=None regions=Automatic fraction=0.75 channels=1 phase=Unknown baseline=5 "
+                + "slice=1 log=[" + log + "] trends=[" + trends + "]");
+        assertTrue(Files.exists(trends.resolve("trend_snr.png")), String.valueOf(IJ.getLog()));
+        assertTrue(Files.size(trends.resolve("trend_snr.png")) > 1000);
+    }
 }

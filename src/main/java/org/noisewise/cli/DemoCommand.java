@@ -134,7 +134,8 @@ public class DemoCommand implements Callable<Integer> {
                 ci(((Number) row.get("ratio_measured_ci95[0]")).doubleValue(),
                         ((Number) row.get("ratio_measured_ci95[1]")).doubleValue()));
         out.printf(Locale.ROOT, "  predicted from the protocols: %s (4x the averages); consistent: %s%n",
-                fmt(((Number) row.get("ratio_predicted")).doubleValue()), row.get("consistent"));
+                fmt(((Number) row.get("ratio_predicted")).doubleValue()),
+                org.noisewise.report.Formats.text(row.get("consistent")));
         ImagePlus full = ImageFiles.open(samples.resolve(ProtocolSamples.FULL.file()));
         ImagePlus acc = ImageFiles.open(samples.resolve(ProtocolSamples.ACCEL2.file()));
         Region strip = Region.rectangle("strip x 48-53", 48, 16, 6, 32, ProtocolSamples.SIZE, ProtocolSamples.SIZE);

@@ -54,18 +54,8 @@ public class QaCommand implements Callable<Integer> {
     @Option(names = "--field", paramLabel = "T", description = "Field strength in tesla (default: DICOM 0018,0087).")
     Double field;
 
-    @Option(names = "--scanner", paramLabel = "NAME", description = "Scanner key for the log (default: DICOM).")
-    String scanner;
-
-    @Option(names = "--coil", paramLabel = "NAME", description = "Coil key for the log (default: DICOM 0018,1250).")
-    String coil;
-
-    @Option(names = "--protocol", paramLabel = "NAME", description = "Protocol key for the log (default: DICOM 0018,1030).")
-    String protocol;
-
-    @Option(names = "--baseline", paramLabel = "N", defaultValue = "5",
-            description = "Sessions forming the baseline per key (default: ${DEFAULT-VALUE}).")
-    int baseline;
+    @Mixin
+    LogKeyOptions logKeys;
 
     @Option(names = "--phase", paramLabel = "ROW|COL", description = "Phase-encoding direction (default: DICOM 0018,1312).")
     String phase;
@@ -91,8 +81,8 @@ public class QaCommand implements Callable<Integer> {
         if (!(fraction > 0 && fraction <= 1)) {
             throw new InputException("--fraction must be between 0 and 1, was " + fraction);
         }
-        if (baseline < 2) {
-            throw new InputException("--baseline must be at least 2 sessions, was " + baseline);
+        if (logKeys.baseline < 2) {
+            throw new InputException("--baseline must be at least 2 sessions, was " + logKeys.baseline);
         }
         if (images.size() > 2) {
             throw new InputException(images.size() + " images were given: phantom QA takes one scan, or two identical "
@@ -111,7 +101,8 @@ public class QaCommand implements Callable<Integer> {
                     .getFileName() + "' does not state (DICOM 0018,0087): give it with --field T");
         }
         QaMeasure.Options o = new QaMeasure.Options(fraction, phase == null ? null : BackgroundCommand.parsePhase(phase),
-                channels, field, limits, scanner, coil, protocol, baseline, log, report, force, slice, trends, repeats);
+                channels, field, limits, logKeys.scanner, logKeys.coil, logKeys.protocol, logKeys.baseline, log, report,
+                force, slice, trends, repeats);
         QaMeasure.Outcome out = QaMeasure.run(first, second, null, o, images.get(0),
                 progress);
         Output.notes(spec.commandLine().getErr(), "qa", out.notes());

@@ -16,7 +16,6 @@ import org.noisewise.measure.Measurement;
 import org.noisewise.measure.Progress;
 import org.noisewise.measure.Roles;
 import org.noisewise.measure.StabilityMeasure;
-import org.noisewise.phantom.QaLog;
 import org.noisewise.series.Stability;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -69,18 +68,8 @@ public class StabilityCommand implements Callable<Integer> {
     @Option(names = "--report", paramLabel = "out.html", description = "Write a self-contained HTML report.")
     Path report;
 
-    @Option(names = "--scanner", paramLabel = "NAME", description = "Scanner key for the log (default: DICOM).")
-    String scanner;
-
-    @Option(names = "--coil", paramLabel = "NAME", description = "Coil key for the log (default: DICOM 0018,1250).")
-    String coil;
-
-    @Option(names = "--protocol", paramLabel = "NAME", description = "Protocol key for the log (default: DICOM 0018,1030).")
-    String protocol;
-
-    @Option(names = "--baseline", paramLabel = "N", defaultValue = "" + QaLog.DEFAULT_BASELINE,
-            description = "Sessions forming the baseline per key (default: ${DEFAULT-VALUE}).")
-    int baseline;
+    @Mixin
+    LogKeyOptions logKeys;
 
     @Option(names = "--force", description = "Replace output files that exist (never the input).")
     boolean force;
@@ -97,8 +86,8 @@ public class StabilityCommand implements Callable<Integer> {
         if (plots != null && !Files.isDirectory(plots)) {
             throw new InputException("the folder for plots '" + plots + "' does not exist: create it first");
         }
-        if (baseline < 1) {
-            throw new InputException("the baseline needs at least 1 session, was " + baseline);
+        if (logKeys.baseline < 1) {
+            throw new InputException("--baseline needs at least 1 session, was " + logKeys.baseline);
         }
         progress.report(0.0, "reading " + image.getFileName());
         ImagePlus imp = ImageFiles.open(image);
@@ -119,8 +108,8 @@ public class StabilityCommand implements Callable<Integer> {
             ImageWriter.checkFolderWritable(p);
         }
         StabilityMeasure.Outcome out = run(imp, image.getFileName().toString(), regions,
-                new StabilityMeasure.Options(zs, skip, roiSize, maps != null, log, report, force, scanner, coil,
-                        protocol, baseline), image, progress);
+                new StabilityMeasure.Options(zs, skip, roiSize, maps != null, log, report, force, logKeys.scanner,
+                        logKeys.coil, logKeys.protocol, logKeys.baseline), image, progress);
         Measurement m = out.measurement();
         for (int i = 0; i < m.images().size(); i++) {
             ImageWriter.saveTiff(m.images().get(i), perSlice(maps, zs[i], zs.length), force, image);

@@ -14,7 +14,7 @@ import org.apache.commons.math3.special.Gamma;
  */
 public final class ChannelCount {
 
-    private static final double Z975 = 1.959963984540054;
+    private static final double Z975 = org.noisewise.estimate.Levels.Z95;
 
     private ChannelCount() {
     }

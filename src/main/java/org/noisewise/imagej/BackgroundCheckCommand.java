@@ -1,8 +1,6 @@
 package org.noisewise.imagej;
 
-import ij.IJ;
 import ij.ImagePlus;
-import ij.WindowManager;
 import ij.gui.GenericDialog;
 import ij.gui.Plot;
 import ij.gui.Roi;
@@ -38,11 +36,7 @@ public class BackgroundCheckCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus imp = Face.currentImage(TITLE);
-        if (imp == null) {
-            return;
-        }
-        try {
+        Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
             RegionRoles regions = RegionRoles.of(imp);
             Face.requireRegions(regions, "The check needs background regions in air.");
@@ -89,13 +83,7 @@ public class BackgroundCheckCommand implements PlugIn {
             Face.overlay(imp, background.contains(signal.isEmpty() ? null : signal.get(0)) ? List.of() : signal,
                     background);
             Face.reactivate(imp);
-        } catch (InputException e) {
-            IJ.error(TITLE, e.getMessage());
-        } catch (RuntimeException e) {
-            Errors.unexpected(TITLE, e);
-        } catch (OutOfMemoryError e) {
-            Errors.outOfMemory(TITLE);
-        }
+        });
     }
 
     /** Checks slice {@code slice} (1-based) with a stated channel count. Never modifies {@code imp}. */

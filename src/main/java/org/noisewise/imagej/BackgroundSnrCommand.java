@@ -1,6 +1,5 @@
 package org.noisewise.imagej;
 
-import ij.IJ;
 import ij.ImagePlus;
 import ij.WindowManager;
 import ij.gui.GenericDialog;
@@ -15,7 +14,6 @@ import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.measure.BackgroundMeasure;
 import org.noisewise.measure.Measurement;
 import org.noisewise.measure.Planes;
-import org.noisewise.measure.Progress;
 
 /**
  * {@code Plugins>Noisewise>SNR (Background Regions)...}: the single-image SNR, sigma from background
@@ -42,11 +40,7 @@ public class BackgroundSnrCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus imp = Face.currentImage(TITLE);
-        if (imp == null) {
-            return;
-        }
-        try {
+        Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
             RegionRoles regions = RegionRoles.of(imp);
             Face.requireRegions(regions, "The background method needs one signal region and at least one background "
@@ -100,13 +94,7 @@ public class BackgroundSnrCommand implements PlugIn {
             Face.log(TITLE, m.notes());
             Face.overlay(imp, List.of(signal), background);
             Face.reactivate(imp);
-        } catch (InputException e) {
-            IJ.error(TITLE, e.getMessage());
-        } catch (RuntimeException e) {
-            Errors.unexpected(TITLE, e);
-        } catch (OutOfMemoryError e) {
-            Errors.outOfMemory(TITLE);
-        }
+        });
     }
 
     /**

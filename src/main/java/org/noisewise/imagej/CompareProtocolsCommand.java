@@ -1,6 +1,5 @@
 package org.noisewise.imagej;
 
-import ij.IJ;
 import ij.ImagePlus;
 import ij.WindowManager;
 import ij.gui.GenericDialog;
@@ -32,11 +31,7 @@ public class CompareProtocolsCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus current = Face.currentImage(TITLE);
-        if (current == null) {
-            return;
-        }
-        try {
+        Errors.guard(TITLE, current -> {
             Face.checkImage(current, TITLE);
             int[] ids = WindowManager.getIDList();
             if (ids == null || ids.length < 2) {
@@ -85,13 +80,7 @@ public class CompareProtocolsCommand implements PlugIn {
             Face.log(TITLE, m.notes());
             Face.overlay(a, signal, background);
             Face.reactivate(a);
-        } catch (InputException e) {
-            IJ.error(TITLE, e.getMessage());
-        } catch (RuntimeException e) {
-            Errors.unexpected(TITLE, e);
-        } catch (OutOfMemoryError e) {
-            Errors.outOfMemory(TITLE);
-        }
+        });
     }
 
     static String otherTitle(int[] ids, ImagePlus current) {

@@ -1,6 +1,5 @@
 package org.noisewise.imagej;
 
-import ij.IJ;
 import ij.ImagePlus;
 import ij.WindowManager;
 import ij.gui.GenericDialog;
@@ -34,11 +33,7 @@ public class DifferenceSnrCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus current = Face.currentImage(TITLE);
-        if (current == null) {
-            return;
-        }
-        try {
+        Errors.guard(TITLE, current -> {
             Face.checkImage(current, TITLE);
             int[] ids = WindowManager.getIDList();
             boolean twoImages = ids != null && ids.length >= 2;
@@ -83,13 +78,7 @@ public class DifferenceSnrCommand implements PlugIn {
             Face.show(TITLE, first, m.rows(), append);
             Face.overlay(first, signal, List.of());
             Face.reactivate(first);
-        } catch (InputException e) {
-            IJ.error(TITLE, e.getMessage());
-        } catch (RuntimeException e) {
-            Errors.unexpected(TITLE, e);
-        } catch (OutOfMemoryError e) {
-            Errors.outOfMemory(TITLE);
-        }
+        });
     }
 
     private static String secondTitle(int[] ids, ImagePlus current) {

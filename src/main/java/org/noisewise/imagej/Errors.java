@@ -1,7 +1,9 @@
 package org.noisewise.imagej;
 
 import ij.IJ;
+import ij.ImagePlus;
 import ij.Macro;
+import org.noisewise.estimate.InputException;
 import org.noisewise.measure.Memory;
 
 /** How the commands report an unexpected failure: one message, no stack trace. */
@@ -24,5 +26,30 @@ final class Errors {
     static void outOfMemory(String title) {
         IJ.error(title, "Noisewise ran out of memory (" + Memory.heapText() + "). Nothing was changed. Give ImageJ more "
                 + "memory (Edit > Options > Memory & Threads), or measure fewer slices or a cropped copy of the image.");
+    }
+
+    /** A command's body on the current image. */
+    interface Body {
+        void run(ImagePlus imp) throws InputException;
+    }
+
+    /**
+     * Runs {@code body} on the current image (an error dialog when there is none); an input error becomes
+     * one message in Fiji's words, anything unexpected or a full heap one message too, never a stack trace.
+     */
+    static void guard(String title, Body body) {
+        ImagePlus imp = Face.currentImage(title);
+        if (imp == null) {
+            return;
+        }
+        try {
+            body.run(imp);
+        } catch (InputException e) {
+            IJ.error(title, e.getMessage());
+        } catch (RuntimeException e) {
+            unexpected(title, e);
+        } catch (OutOfMemoryError e) {
+            outOfMemory(title);
+        }
     }
 }

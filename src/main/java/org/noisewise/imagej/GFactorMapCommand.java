@@ -1,6 +1,5 @@
 package org.noisewise.imagej;
 
-import ij.IJ;
 import ij.ImagePlus;
 import ij.WindowManager;
 import ij.gui.GenericDialog;
@@ -29,11 +28,7 @@ public class GFactorMapCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus current = Face.currentImage(TITLE);
-        if (current == null) {
-            return;
-        }
-        try {
+        Errors.guard(TITLE, current -> {
             Face.checkImage(current, TITLE);
             int[] ids = WindowManager.getIDList();
             if (ids == null || ids.length < 2) {
@@ -79,13 +74,7 @@ public class GFactorMapCommand implements PlugIn {
             Face.log(TITLE, m.notes());
             Face.overlay(full, signal, List.of());
             Face.reactivate(full);
-        } catch (InputException e) {
-            IJ.error(TITLE, e.getMessage());
-        } catch (RuntimeException e) {
-            Errors.unexpected(TITLE, e);
-        } catch (OutOfMemoryError e) {
-            Errors.outOfMemory(TITLE);
-        }
+        });
     }
 
     /** Measures without dialogs; never modifies the images; the maps are returned, not shown. */

@@ -51,11 +51,7 @@ public class PhantomQaCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus imp = Face.currentImage(TITLE);
-        if (imp == null) {
-            return;
-        }
-        try {
+        Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
             GenericDialog gd = new GenericDialog(TITLE);
             gd.addChoice("Second acquisition:", DialogFields.otherImages(imp, NONE), NONE);
@@ -128,13 +124,7 @@ public class PhantomQaCommand implements PlugIn {
                 p.show();
             }
             Face.reactivate(imp);
-        } catch (InputException e) {
-            IJ.error(TITLE, e.getMessage());
-        } catch (RuntimeException e) {
-            Errors.unexpected(TITLE, e);
-        } catch (OutOfMemoryError e) {
-            Errors.outOfMemory(TITLE);
-        }
+        });
     }
 
     /** Runs the QA without dialogs. Never modifies the images. */
@@ -228,7 +218,7 @@ public class PhantomQaCommand implements PlugIn {
                     + "Automatic first, then adjust the regions it adds.");
         }
         if (windowW < 2 || windowH < 2) {
-            windowW = (int) Math.max(2, Math.round(Math.sqrt(0.01 * signal.region().size())));
+            windowW = QaRegions.fallbackWindow(signal.region().size());
             windowH = windowW;
         }
         return new QaRegions.Placement(signal, bg, sides[0], sides[1], sides[2], sides[3], windowW, windowH, List.of());

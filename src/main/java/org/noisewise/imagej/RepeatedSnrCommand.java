@@ -1,6 +1,5 @@
 package org.noisewise.imagej;
 
-import ij.IJ;
 import ij.ImagePlus;
 import ij.gui.GenericDialog;
 import ij.gui.Roi;
@@ -34,11 +33,7 @@ public class RepeatedSnrCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus imp = Face.currentImage(TITLE);
-        if (imp == null) {
-            return;
-        }
-        try {
+        Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
             if (StackPlanes.repeatCount(imp) < 2) {
                 throw new InputException("'" + imp.getTitle() + "' is a single image: the repeated-acquisition method "
@@ -79,13 +74,7 @@ public class RepeatedSnrCommand implements PlugIn {
                 Face.overlay(imp, signal, List.of());
             }
             Face.reactivate(imp);
-        } catch (InputException e) {
-            IJ.error(TITLE, e.getMessage());
-        } catch (RuntimeException e) {
-            Errors.unexpected(TITLE, e);
-        } catch (OutOfMemoryError e) {
-            Errors.outOfMemory(TITLE);
-        }
+        });
     }
 
     /**

@@ -1,6 +1,5 @@
 package org.noisewise.imagej;
 
-import ij.IJ;
 import ij.ImagePlus;
 import ij.gui.GenericDialog;
 import ij.gui.Roi;
@@ -28,11 +27,7 @@ public class RicianCorrectionCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus imp = Face.currentImage(TITLE);
-        if (imp == null) {
-            return;
-        }
-        try {
+        Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
             RegionRoles regions = RegionRoles.of(imp);
             String unit = ImagePlanes.valueUnit(imp);
@@ -70,13 +65,7 @@ public class RicianCorrectionCommand implements PlugIn {
                 Face.overlay(imp, List.of(), background);
             }
             Face.reactivate(imp);
-        } catch (InputException e) {
-            IJ.error(TITLE, e.getMessage());
-        } catch (RuntimeException e) {
-            Errors.unexpected(TITLE, e);
-        } catch (OutOfMemoryError e) {
-            Errors.outOfMemory(TITLE);
-        }
+        });
     }
 
     /**

@@ -1,6 +1,5 @@
 package org.noisewise.imagej;
 
-import ij.IJ;
 import ij.ImagePlus;
 import ij.gui.GenericDialog;
 import ij.gui.Plot;
@@ -41,11 +40,7 @@ public class StabilityCommand implements PlugIn {
 
     @Override
     public void run(String arg) {
-        ImagePlus imp = Face.currentImage(TITLE);
-        if (imp == null) {
-            return;
-        }
-        try {
+        Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
             int frames = StackPlanes.repeatCount(imp);
             if (frames < Stability.MIN_FRAMES) {
@@ -116,13 +111,7 @@ public class StabilityCommand implements PlugIn {
             Face.log(TITLE, out.measurement().notes());
             Face.overlay(imp, List.of(squareOf(out, signal)), List.of());
             Face.reactivate(imp);
-        } catch (InputException e) {
-            IJ.error(TITLE, e.getMessage());
-        } catch (RuntimeException e) {
-            Errors.unexpected(TITLE, e);
-        } catch (OutOfMemoryError e) {
-            Errors.outOfMemory(TITLE);
-        }
+        });
     }
 
     private static String blankToNull(String s) {

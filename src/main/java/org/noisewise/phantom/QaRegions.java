@@ -87,7 +87,7 @@ public final class QaRegions {
             windowW = (int) Math.max(2, Math.round(10.0 / pixelWidthMm));
             windowH = (int) Math.max(2, Math.round(10.0 / pixelHeightMm));
         } else {
-            windowW = (int) Math.max(2, Math.round(Math.sqrt(0.01 * signal.region().size())));
+            windowW = fallbackWindow(signal.region().size());
             windowH = windowW;
             warnings.add(new Warning("uncalibrated", String.format(Locale.ROOT, "the image has no pixel size: the "
                     + "uniformity windows (1 cm^2 in published procedures) were set to %d x %d pixels, 1%% of the "
@@ -228,5 +228,10 @@ public final class QaRegions {
             }
         }
         return new PlacedRegion(name, PlacedRegion.Kind.RECTANGLE, x, y, w, h, new Region(name, idx));
+    }
+
+    /** The side of the uniformity windows without a pixel size: 1% of the signal region's area, at least 2. */
+    public static int fallbackWindow(int signalPixels) {
+        return (int) Math.max(2, Math.round(Math.sqrt(0.01 * signalPixels)));
     }
 }

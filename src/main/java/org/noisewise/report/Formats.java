@@ -120,6 +120,9 @@ public final class Formats {
             return list.stream().map(o -> o instanceof Warning w ? w.message() : String.valueOf(o))
                     .collect(Collectors.joining("; "));
         }
+        if (v instanceof Boolean b) {
+            return b ? "yes" : "no";
+        }
         return v.toString();
     }
 

@@ -59,7 +59,7 @@ public final class ProtocolRows {
                 .add("ratio_measured_ci95[0]", "Ratio 95% low", m.ci95().low())
                 .add("ratio_measured_ci95[1]", "Ratio 95% high", m.ci95().high())
                 .add("ratio_predicted", "Ratio predicted", m.predicted())
-                .add("consistent", "Consistent", m.consistent() == null ? null : m.consistent() ? "yes" : "no");
+                .add("consistent", "Consistent", m.consistent());
         if (p != null) {
             factors(row, p.factors());
             row.add("field_exponent", "Field exponent", p.fieldExponent());

@@ -65,12 +65,12 @@ class ProtocolCommandsCliTest {
         assertEquals(2.0, o.get("ratio_measured").getAsDouble(), 0.1);
         JsonArray ci = o.getAsJsonArray("ratio_measured_ci95");
         assertTrue(ci.get(0).getAsDouble() < 2 && ci.get(1).getAsDouble() > 2, ci.toString());
-        assertTrue(o.get("consistent").getAsString().equals("yes"));
+        assertTrue(o.get("consistent").getAsBoolean());
         // predicted 4 (16 averages) is outside: not consistent
         CliRunner.Result off = CliRunner.run("compare", a.toString(), b.toString(), "--signal", "16,16,32,32",
                 "--from", "voxel=1x1x5,phase=256,averages=1,bandwidth=130", "--to",
                 "voxel=1x1x5,phase=256,averages=16,bandwidth=130", "--json");
-        assertEquals("no", JsonParser.parseString(off.out()).getAsJsonObject().get("consistent").getAsString());
+        assertFalse(JsonParser.parseString(off.out()).getAsJsonObject().get("consistent").getAsBoolean());
         // a series against a single image: refused, naming both
         Path single = TestImages.saveTiff(series("s", 1, 100, x -> 4, 3), dir, "single.tif");
         CliRunner.Result mixed = CliRunner.run("compare", a.toString(), single.toString(), "--signal", "16,16,32,32",

@@ -68,6 +68,7 @@ final class HelpPages {
         List<String> para = new ArrayList<>();
         boolean code = false;
         boolean list = false;
+        boolean table = false;
         for (String line : md.split("\n", -1)) {
             if (line.startsWith("```")) {
                 flush(out, para);
@@ -86,16 +87,37 @@ final class HelpPages {
             String t = line.trim();
             if (t.startsWith("|")) {
                 flush(out, para);
+                if (!table) {
+                    out.append("<table border=\"1\" cellspacing=\"0\" cellpadding=\"3\">");
+                    table = true;
+                }
                 if (!t.matches("\\|[-| :]+\\|")) {
-                    out.append("<pre>").append(inline(t)).append("</pre>");
+                    out.append("<tr>");
+                    for (String cell : t.substring(1, t.length() - 1).split("(?<!\\\\)\\|", -1)) {
+                        out.append("<td>").append(inline(cell.trim().replace("\\|", "|"))).append("</td>");
+                    }
+                    out.append("</tr>");
                 }
                 continue;
+            }
+            if (table) {
+                out.append("</table>");
+                table = false;
             }
             if (t.startsWith("#")) {
                 flush(out, para);
                 int level = Math.min(4, t.indexOf(' ') + 1);
                 out.append("<h").append(level).append('>').append(inline(t.substring(t.indexOf(' ') + 1)))
                         .append("</h").append(level).append('>');
+                continue;
+            }
+            if (t.matches("\\d+\\. .*")) {
+                flush(out, para);
+                if (list) {
+                    out.append("</ul>");
+                    list = false;
+                }
+                out.append("<p>").append(inline(t));
                 continue;
             }
             if (t.startsWith("- ")) {
@@ -123,6 +145,9 @@ final class HelpPages {
         flush(out, para);
         if (list) {
             out.append("</ul>");
+        }
+        if (table) {
+            out.append("</table>");
         }
         return out.toString();
     }

@@ -50,11 +50,11 @@ public final class Screenshots {
         IJ.run(one, "SNR (Background Regions)...", "channels=1 estimator=[Maximum likelihood] slices=[Current slice] "
                 + "roles=[Region names]");
         settle();
-        capture(WindowManager.getWindow("SNR background - aster_disk_1ch.tif"), "background-table.png");
+        capture(WindowManager.getWindow(org.noisewise.imagej.BackgroundSnrCommand.tableTitle(one)), "background-table.png");
         IJ.run(one, "Background Noise Check...", "channels=1 plot png=[]");
         settle();
-        capture(WindowManager.getWindow("Background histogram - aster_disk_1ch.tif"), "check-plot.png");
-        capture(WindowManager.getWindow("Background check - aster_disk_1ch.tif"), "check-table.png");
+        capture(startingWith("Background histogram"), "check-plot.png");
+        capture(WindowManager.getWindow(org.noisewise.imagej.BackgroundCheckCommand.tableTitle(one)), "check-table.png");
 
         ImagePlus a = open("aster_disk_acq1.tif");
         ImagePlus b = open("aster_disk_acq2.tif");
@@ -65,20 +65,20 @@ public final class Screenshots {
         IJ.run(a, "SNR (Two Acquisitions)...", "source=[Two images] first=aster_disk_acq1.tif second=aster_disk_acq2.tif "
                 + "frame_a=1 frame_b=2 channels=1 slices=[Current slice]");
         settle();
-        capture(WindowManager.getWindow("SNR difference - aster_disk_acq1.tif"), "difference-table.png");
+        capture(WindowManager.getWindow(org.noisewise.imagej.DifferenceSnrCommand.tableTitle(a)), "difference-table.png");
 
         ImagePlus rep = open("aster_disk_repeats.tif");
         rep.show();
         IJ.run(rep, "SNR Map (Repeated Acquisitions)...", "channels=1 slices=[Current slice] maps rician");
         settle();
-        ImagePlus map = WindowManager.getImage("aster_disk_repeats.tif SNR map");
+        ImagePlus map = WindowManager.getImage("aster_disk_repeats.tif repeat maps");
         IJ.run(map, "Set... ", "zoom=300");
         IJ.run(map, "Fire", "");
         map.setDisplayRange(0, 4);
         map.updateAndDraw();
         settle();
         capture(map.getWindow(), "repeated-snr-map.png");
-        capture(WindowManager.getWindow("SNR repeated - aster_disk_repeats.tif"), "repeated-table.png");
+        capture(WindowManager.getWindow(org.noisewise.imagej.RepeatedSnrCommand.tableTitle(rep)), "repeated-table.png");
 
         ImagePlus low = open("aster_disk_low-snr.tif");
         low.show();
@@ -99,8 +99,52 @@ public final class Screenshots {
         IJ.run(qa1, "Set... ", "zoom=300");
         settle();
         capture(qa1.getWindow(), "qa-regions.png");
-        capture(WindowManager.getWindow("Phantom QA - aster_disk_acq1.tif"), "qa-table.png");
+        capture(WindowManager.getWindow(org.noisewise.imagej.PhantomQaCommand.tableTitle(qa1)), "qa-table.png");
+
+        ImagePlus avg2 = open("aster_avg2_series.tif");
+        ImagePlus avg8 = open("aster_avg8_series.tif");
+        avg2.show();
+        avg8.show();
+        rm.reset();
+        Roi sig = new Roi(20, 20, 24, 24);
+        sig.setName("signal");
+        rm.addRoi(sig);
+        IJ.run(avg2, "Compare Protocols...", "image_a=aster_avg2_series.tif image_b=aster_avg8_series.tif "
+                + "protocol_a=[] protocol_b=[] field_exponent=1 channels=1 slices=[Current slice]");
+        settle();
+        capture(WindowManager.getWindow(org.noisewise.imagej.CompareProtocolsCommand.tableTitle(avg2)),
+                "compare-table.png");
+        ImagePlus full = open("aster_full_series.tif");
+        ImagePlus acc = open("aster_accel2_series.tif");
+        full.show();
+        acc.show();
+        rm.reset();
+        Roi strip = new Roi(48, 16, 6, 32);
+        strip.setName("signal");
+        rm.addRoi(strip);
+        IJ.run(full, "g-Factor Map...", "full=aster_full_series.tif accelerated=aster_accel2_series.tif acceleration=2 "
+                + "window=5 channels=1 slices=[Current slice] map");
+        settle();
+        ImagePlus g = WindowManager.getImage("aster_accel2_series.tif g-factor");
+        IJ.run(g, "Set... ", "zoom=400");
+        IJ.run(g, "Fire", "");
+        g.setDisplayRange(0.8, 1.8);
+        g.updateAndDraw();
+        settle();
+        capture(g.getWindow(), "gfactor-map.png");
+        capture(WindowManager.getWindow(org.noisewise.imagej.GFactorMapCommand.tableTitle(full)), "gfactor-table.png");
         System.exit(0);
+    }
+
+    /** The newest window whose title starts with {@code prefix} (outputs get unique titles). */
+    private static Window startingWith(String prefix) {
+        Window found = null;
+        for (java.awt.Frame f : java.awt.Frame.getFrames()) {
+            if (f.isVisible() && f.getTitle() != null && f.getTitle().startsWith(prefix)) {
+                found = f;
+            }
+        }
+        return found;
     }
 
     private static ImagePlus open(String file) {

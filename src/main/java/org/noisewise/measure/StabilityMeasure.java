@@ -144,6 +144,7 @@ public final class StabilityMeasure {
             plots.add(StabilityPlots.spectrum("Stability spectrum - " + title + suffix, r));
             plots.add(StabilityPlots.weisskoff("Weisskoff curve - " + title + suffix, r));
         }
+        Acquisition.addEfficiency(rows, imp, notes);
         List<QaLog.Entry> entries = new ArrayList<>();
         if (o.log() != null || o.report() != null) {
             progress.report(0.95, "Stability: log and report");
@@ -152,6 +153,8 @@ public final class StabilityMeasure {
             List<QaLog.Entry> history = List.of();
             for (int i = 0; i < zs.length; i++) {
                 Map<String, String> values = values(imp, title, zs[i], zCount, results.get(i), allMaps.get(i), o);
+                Object eff = rows.get(i).get("snr_efficiency");
+                values.put("snr_efficiency", eff instanceof Number e ? Formats.csvValue(e.doubleValue()) : "");
                 List<String> flags = new ArrayList<>();
                 Map<String, QaLog.Baseline> b = new LinkedHashMap<>();
                 if (o.log() != null) {

@@ -9,13 +9,10 @@ import com.google.gson.JsonObject;
 import com.google.gson.JsonParser;
 import ij.ImagePlus;
 import ij.ImageStack;
-import ij.process.FloatProcessor;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.SplittableRandom;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.noisewise.testing.NoiseFields;
 import org.noisewise.testing.TestImages;
 
 /** predict, compare and gfactor on the command line. */
@@ -115,6 +112,27 @@ class ProtocolCommandsCliTest {
                 "--signal", "40,14,6,36");
         assertEquals(3, lowR.status());
         assertTrue(lowR.err().contains("at least 1"), lowR.err());
+    }
+
+    /** Acquisitions of different matrices are refused with one line naming both sizes. */
+    @Test
+    void mismatchedMatricesAreNamed() {
+        Path a = TestImages.saveTiff(series("a", 4, 100, x -> 4, 1), dir, "a64.tif");
+        ImagePlus big = TestImages.phantom("b", 100, 4, 1, 2);
+        ImageStack st = new ImageStack(big.getWidth(), big.getHeight());
+        for (int k = 0; k < 4; k++) {
+            st.addSlice(TestImages.phantom("b", 100, 4, 1, 10 + k).getProcessor());
+        }
+        Path b = TestImages.saveTiff(new ImagePlus("b", st), dir, "b96.tif");
+        CliRunner.Result c = CliRunner.run("compare", a.toString(), b.toString(), "--signal", "16,16,32,32",
+                "--from", "averages=1", "--to", "averages=2");
+        assertEquals(3, c.status());
+        assertTrue(c.err().contains("64x64") && c.err().contains("96x96"), c.err());
+        CliRunner.Result g = CliRunner.run("gfactor", a.toString(), b.toString(), "--acceleration", "2", "--signal",
+                "16,16,32,32");
+        assertEquals(3, g.status());
+        assertTrue(g.err().contains("matrix"), g.err());
+        assertEquals(1, g.err().lines().count(), g.err());
     }
 
     private static double sq(java.util.function.IntToDoubleFunction g, int x) {

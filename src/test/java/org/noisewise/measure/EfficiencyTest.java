@@ -53,4 +53,22 @@ class EfficiencyTest {
         assertTrue(plain.rows().get(0).headings().stream().anyMatch(h -> h.startsWith("SNR efficiency")),
                 "the column is there (blank) so tables and CSV keep one shape");
     }
+
+    /** Phantom QA writes the efficiency to its table and to the QA log. */
+    @Test
+    void qaLogRecordsTheEfficiency(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir) throws Exception {
+        ImagePlus imp = ij.IJ.openImage("sample-images/aster_disk_1ch.tif");
+        imp.setProperty("Info", HEADER);
+        java.nio.file.Path log = dir.resolve("qa.csv");
+        QaMeasure.Options o = new QaMeasure.Options(0.75, null, 1, null, false, "Aster", "head", "weekly", 5, log, null,
+                false, 1);
+        QaMeasure.Outcome out = QaMeasure.run(imp, null, null, o, null);
+        double snr = ((Number) out.row().get("snr")).doubleValue();
+        double expected = snr / (1.5 * 1.5 * 4 * Math.sqrt(96.0 * 2 / 192));
+        assertEquals(expected, ((Number) out.row().get("snr_efficiency")).doubleValue(), 1e-9 * expected);
+        java.util.List<String> lines = java.nio.file.Files.readAllLines(log);
+        java.util.List<String> header = java.util.List.of(lines.get(0).split(","));
+        String[] row = lines.get(1).split(",");
+        assertEquals(expected, Double.parseDouble(row[header.indexOf("snr_efficiency")]), 1e-9 * expected);
+    }
 }

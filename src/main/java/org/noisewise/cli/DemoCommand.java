@@ -138,7 +138,7 @@ public class DemoCommand implements Callable<Integer> {
                 org.noisewise.report.Formats.text(row.get("consistent")));
         ImagePlus full = ImageFiles.open(samples.resolve(ProtocolSamples.FULL.file()));
         ImagePlus acc = ImageFiles.open(samples.resolve(ProtocolSamples.ACCEL2.file()));
-        Region strip = Region.rectangle("strip x 48-53", 48, 16, 6, 32, ProtocolSamples.SIZE, ProtocolSamples.SIZE);
+        Region strip = Region.rectangle("strip x 48-53", 48, 20, 6, 24, ProtocolSamples.SIZE, ProtocolSamples.SIZE);
         var g = GFactorMeasure.run(full, ProtocolSamples.FULL.file(), acc, ProtocolSamples.ACCEL2.file(), 2.0,
                 Roles.of(strip, List.of()), 1, new int[] {1}, null, false, Progress.NONE).rows().get(0);
         double ms = 0;

@@ -5,6 +5,7 @@ import java.util.ArrayList;
 import java.util.List;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
+import org.noisewise.estimate.RepeatedAcquisitions;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.ProtocolHeaders;
 import org.noisewise.io.StackPlanes;
@@ -58,9 +59,12 @@ public final class CompareMeasure {
         for (int i = 0; i < zs.length; i++) {
             int z = zs[i];
             progress.report((double) i / zs.length, "Compare protocols: z " + z);
+            boolean series = kindA.equals("repeated");
+            RepeatedAcquisitions.Maps ma = series ? InputSnr.maps(a, z) : null;
+            RepeatedAcquisitions.Maps mb = series ? InputSnr.maps(b, z) : null;
             for (Region reg : roles.signals()) {
-                InputSnr sa = InputSnr.measure(a, titleA, z, reg, roles.background(), channels, null);
-                InputSnr sb = InputSnr.measure(b, titleB, z, reg, roles.background(), channels, null);
+                InputSnr sa = InputSnr.measure(a, titleA, z, reg, roles.background(), channels, ma);
+                InputSnr sb = InputSnr.measure(b, titleB, z, reg, roles.background(), channels, mb);
                 ProtocolScaling.MeasuredRatio m = ProtocolScaling.measuredRatio(sa.figures(), sb.figures(), p.ratio());
                 rows.add(ProtocolRows.comparison(titleA, titleB, z, sa.method(), reg.name(), sa.figures().snr(),
                         sb.figures().snr(), m, p, pa, pb));

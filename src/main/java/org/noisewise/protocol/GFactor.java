@@ -19,9 +19,17 @@ import org.noisewise.estimate.Warning;
  * freedom, so the map is smoothed when asked: the variance maps are averaged over a {@code w x w} window
  * (edges clamped), worth {@code (K - 1) w^2} degrees of freedom for uncorrelated noise. The relative SD of
  * a pixel value is then about {@code sqrt(1/(2 nu_full) + 1/(2 nu_accel))} (closed form for a ratio of two
- * independent sample SDs, first order).
+ * independent sample SDs, first order). Pixels of the full acquisition below {@link #MIN_SNR} (air) are
+ * left out (NaN).
  */
 public final class GFactor {
+
+    /**
+     * Pixels whose full-acquisition SNR (temporal mean over SD) is below this are left out of the map
+     * (NaN): in air the ratio of two noise-only SNRs says nothing about the g-factor. Pure Rayleigh noise
+     * has a mean/SD of 1.91, so 5 keeps noise out and any tissue or phantom signal in (our choice).
+     */
+    public static final double MIN_SNR = 5.0;
 
     /** The pixel-map precision (relative SD) below which no warning is given. */
     public static final double TARGET_PRECISION = 0.10;
@@ -59,7 +67,7 @@ public final class GFactor {
         for (int i = 0; i < n; i++) {
             double snrF = meanFull[i] / Math.sqrt(vf[i]);
             double snrA = meanAccel[i] / Math.sqrt(va[i]);
-            g[i] = meanFull[i] > 0 && meanAccel[i] > 0 && vf[i] > 0 && va[i] > 0
+            g[i] = meanFull[i] > 0 && meanAccel[i] > 0 && vf[i] > 0 && va[i] > 0 && snrF >= MIN_SNR
                     ? (float) (snrF / (snrA * root)) : Float.NaN;
         }
         return g;

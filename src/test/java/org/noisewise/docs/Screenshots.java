@@ -119,7 +119,7 @@ public final class Screenshots {
         full.show();
         acc.show();
         rm.reset();
-        Roi strip = new Roi(48, 16, 6, 32);
+        Roi strip = new Roi(48, 20, 6, 24);
         strip.setName("signal");
         rm.addRoi(strip);
         IJ.run(full, "g-Factor Map...", "full=aster_full_series.tif accelerated=aster_accel2_series.tif acceleration=2 "

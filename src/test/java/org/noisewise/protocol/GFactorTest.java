@@ -97,6 +97,14 @@ class GFactorTest {
         double sdSmooth = spread(smooth, 28, 36);
         assertTrue(sdSmooth < sdRaw / 3, sdSmooth + " vs " + sdRaw);
         assertThrows(InputException.class, () -> GFactor.map(mf.mean(), mf.sd(), ma.mean(), ma.sd(), W, W, R, 4));
+        // air (pure noise, mean/SD about 1.91) is left out of the map; the object is in it
+        float[] noise = new float[W * W];
+        float[] ones = new float[W * W];
+        java.util.Arrays.fill(noise, 1.91f);
+        java.util.Arrays.fill(ones, 1f);
+        float[] air = GFactor.map(noise, ones, noise, ones, W, W, R, 1);
+        assertTrue(Float.isNaN(air[0]) && Float.isNaN(air[W * W - 1]));
+        assertTrue(Float.isFinite(smooth[32 * W + 32]));
     }
 
     private static double spread(float[] m, int x0, int x1) {

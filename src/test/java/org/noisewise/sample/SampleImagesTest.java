@@ -157,10 +157,14 @@ class SampleImagesTest {
         double hi = ((Number) row.get("ratio_measured_ci95[1]")).doubleValue();
         assertTrue(lo < 2 && hi > 2, lo + " - " + hi);
         assertEquals(Boolean.TRUE, row.get("consistent"));
+        // the README's worked example prints these (Compare Protocols)
+        assertEquals(1.943, ((Number) row.get("ratio_measured")).doubleValue(), 5e-4);
+        assertEquals(1.884, lo, 5e-4);
+        assertEquals(2.005, hi, 5e-4);
 
         ImagePlus full = ImageFiles.open(DIR.resolve(ProtocolSamples.FULL.file()));
         ImagePlus acc = ImageFiles.open(DIR.resolve(ProtocolSamples.ACCEL2.file()));
-        org.noisewise.estimate.Region strip = org.noisewise.estimate.Region.rectangle("strip", 48, 16, 6, 32, 64, 64);
+        org.noisewise.estimate.Region strip = org.noisewise.estimate.Region.rectangle("strip", 48, 20, 6, 24, 64, 64);
         var g = org.noisewise.measure.GFactorMeasure.run(full, "full", acc, "accel", 2.0,
                 org.noisewise.measure.Roles.of(strip, java.util.List.of()), 1, new int[] {1}, null, false,
                 org.noisewise.measure.Progress.NONE);
@@ -170,5 +174,8 @@ class SampleImagesTest {
         }
         double truth = Math.sqrt(ms);
         assertEquals(truth, ((Number) g.rows().get(0).get("g_mean")).doubleValue(), 0.03 * truth);
+        // the README's worked example prints these (g-Factor Map)
+        assertEquals(1.395, ((Number) g.rows().get(0).get("g_mean")).doubleValue(), 5e-4);
+        assertEquals(101, ((Number) g.rows().get(0).get("repeats_needed")).intValue());
     }
 }

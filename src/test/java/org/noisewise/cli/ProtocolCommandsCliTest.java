@@ -135,6 +135,32 @@ class ProtocolCommandsCliTest {
         assertEquals(1, g.err().lines().count(), g.err());
     }
 
+    /** --from and --to also take a DICOM file whose header states the protocol (pydicom's MR_small.dcm, edited). */
+    @Test
+    void predictFromADicomHeader() throws Exception {
+        byte[] d;
+        try (java.io.InputStream in = getClass().getResourceAsStream("/opendata/MR_small.dcm")) {
+            d = in.readAllBytes();
+        }
+        d = org.noisewise.testing.DicomEdit.set(d, 0x0018, 0x0050, "DS", "5");
+        d = org.noisewise.testing.DicomEdit.set(d, 0x0018, 0x0083, "DS", "1");
+        d = org.noisewise.testing.DicomEdit.set(d, 0x0018, 0x0087, "DS", "1.5");
+        d = org.noisewise.testing.DicomEdit.set(d, 0x0018, 0x0089, "IS", "64");
+        d = org.noisewise.testing.DicomEdit.set(d, 0x0018, 0x0095, "DS", "130");
+        d = org.noisewise.testing.DicomEdit.set(d, 0x0028, 0x0030, "DS", "1\\1");
+        Path dcm = dir.resolve("protocol.dcm");
+        Files.write(dcm, d);
+        CliRunner.Result r = CliRunner.run("predict", "--from", dcm.toString(), "--to",
+                "voxel=1x1x5,phase=64,averages=4,bandwidth=130,field=1.5", "--json");
+        assertEquals(0, r.status(), r.err());
+        // 4 averages against 1, all else equal: sqrt(4) = 2 [closed form]
+        assertEquals(2.0, JsonParser.parseString(r.out()).getAsJsonObject().get("ratio").getAsDouble(), 1e-12);
+        CliRunner.Result none = CliRunner.run("predict", "--from", TestImages.saveTiff(
+                TestImages.phantom("plain", 10, 1, 1, 1), dir, "plain.tif").toString(), "--to", "averages=2");
+        assertEquals(3, none.status());
+        assertTrue(none.err().contains("states no acquisition parameters"), none.err());
+    }
+
     private static double sq(java.util.function.IntToDoubleFunction g, int x) {
         return g.applyAsDouble(x) * g.applyAsDouble(x);
     }

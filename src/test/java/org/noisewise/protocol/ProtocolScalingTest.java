@@ -141,6 +141,7 @@ class ProtocolScalingTest {
             }
         }
         double coverage = (double) inside / trials;
+        System.out.printf(java.util.Locale.ROOT, "coverage %% of the true SNR ratio: %.1f%n", 100 * coverage);
         assertTrue(coverage >= 0.93 && coverage <= 0.97, "coverage " + coverage);
     }
 

@@ -221,8 +221,11 @@ public final class RepeatedAcquisitions {
         }
     }
 
-    /** The stored (or table-calibrated) values of one tile of a frame. */
-    private static void load(Object frame, float[] table, int from, int n, double[] out) {
+    /**
+     * The stored (or table-calibrated) values of one tile of a frame: {@code byte[]} and {@code short[]} are
+     * unsigned, {@code table} (or null) maps stored to calibrated values. Shared with the stability maps.
+     */
+    public static void load(Object frame, float[] table, int from, int n, double[] out) {
         if (frame instanceof short[] a) {
             for (int j = 0; j < n; j++) {
                 int raw = a[from + j] & 0xffff;

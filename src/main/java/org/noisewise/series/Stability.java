@@ -111,7 +111,7 @@ public final class Stability {
             if (table == null && !(frames[skip] instanceof float[])) {
                 wholeSums(frames, skip, n, ns, from, m, trend, sc, WHOLE.get());
             } else {
-                load(frames[skip], table, from, m, base);
+                RepeatedAcquisitions.load(frames[skip], table, from, m, base);
                 java.util.Arrays.fill(s1, 0, m, 0.0);
                 java.util.Arrays.fill(s2, 0, m, 0.0);
                 java.util.Arrays.fill(s3, 0, m, 0.0);
@@ -244,25 +244,6 @@ public final class Stability {
     private static double lastDeviation(Object[] frames, int f, int i, long base) {
         Object a = frames[f];
         return (a instanceof short[] s ? s[i] & 0xffff : ((byte[]) a)[i] & 0xff) - base;
-    }
-
-    private static void load(Object frame, float[] table, int from, int n, double[] out) {
-        if (frame instanceof short[] a) {
-            for (int j = 0; j < n; j++) {
-                int raw = a[from + j] & 0xffff;
-                out[j] = table == null ? raw : table[raw];
-            }
-        } else if (frame instanceof byte[] a) {
-            for (int j = 0; j < n; j++) {
-                int raw = a[from + j] & 0xff;
-                out[j] = table == null ? raw : table[raw];
-            }
-        } else {
-            float[] a = (float[]) frame;
-            for (int j = 0; j < n; j++) {
-                out[j] = a[from + j];
-            }
-        }
     }
 
     private static void accumulate(Object frame, float[] table, int from, int n, double[] base, double w1, double w2,

@@ -88,7 +88,15 @@ public final class Screenshots {
         IJ.run(corrected, "Set... ", "zoom=200");
         settle();
         capture(corrected.getWindow(), "corrected.png");
-        Path log = Files.createTempDirectory("noisewise-shots").resolve("qa.csv");
+        Path shots = Files.createTempDirectory("noisewise-shots");
+        Runtime.getRuntime().addShutdownHook(new Thread(() -> {
+            try (var files = Files.walk(shots)) {
+                files.sorted(java.util.Comparator.reverseOrder()).forEach(f -> f.toFile().delete());
+            } catch (java.io.IOException e) {
+                System.err.println("could not remove " + shots + ": " + e.getMessage());
+            }
+        }));
+        Path log = shots.resolve("qa.csv");
         ImagePlus qa1 = open("aster_disk_acq1.tif");
         ImagePlus qa2 = open("aster_disk_acq2.tif");
         qa1.show();

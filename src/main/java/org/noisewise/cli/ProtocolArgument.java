@@ -3,7 +3,6 @@ package org.noisewise.cli;
 import ij.ImagePlus;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.List;
 import org.noisewise.estimate.InputException;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.io.ProtocolHeaders;
@@ -33,7 +32,6 @@ final class ProtocolArgument {
             throw new InputException(option + " " + text + ": the file states no acquisition parameters (no DICOM "
                     + "header): give them as KEY=VALUE pairs instead");
         }
-        return new Protocol(h.voxel(), h.phase(), h.partitions(), h.averages(), h.bandwidth(), h.field(),
-                h.acceleration(), h.g(), List.copyOf(h.notes()));
+        return h;
     }
 }

@@ -43,7 +43,7 @@ public class CompareProtocolsCommand implements PlugIn {
                     + "region named 'signal' to the ROI Manager; single images also need background regions).");
             GenericDialog gd = new GenericDialog(TITLE);
             gd.addImageChoice("Image_a (protocol A):", current.getTitle());
-            gd.addImageChoice("Image_b (protocol B):", otherTitle(ids, current));
+            gd.addImageChoice("Image_b (protocol B):", DialogFields.otherTitle(current));
             gd.addStringField("Protocol_a (KEY=VALUE, blank = header):", "", 40);
             gd.addStringField("Protocol_b (KEY=VALUE, blank = header):", "", 40);
             gd.addNumericField("Field_exponent:", ProtocolScaling.DEFAULT_FIELD_EXPONENT, 2, 5, "(1 by default)");
@@ -81,16 +81,6 @@ public class CompareProtocolsCommand implements PlugIn {
             Face.overlay(a, signal, background);
             Face.reactivate(a);
         });
-    }
-
-    static String otherTitle(int[] ids, ImagePlus current) {
-        for (int id : ids) {
-            ImagePlus imp = WindowManager.getImage(id);
-            if (imp != null && imp != current) {
-                return imp.getTitle();
-            }
-        }
-        return current.getTitle();
     }
 
     /**

@@ -50,6 +50,20 @@ final class DialogFields {
         return titles.toArray(new String[0]);
     }
 
+    /** The title of the first open image other than {@code current} (its own title when there is none). */
+    static String otherTitle(ImagePlus current) {
+        int[] ids = WindowManager.getIDList();
+        if (ids != null) {
+            for (int id : ids) {
+                ImagePlus imp = WindowManager.getImage(id);
+                if (imp != null && imp != current) {
+                    return imp.getTitle();
+                }
+            }
+        }
+        return current.getTitle();
+    }
+
     /** The file the image was opened from, or null (so outputs never replace it). */
     static java.nio.file.Path sourceFile(ImagePlus imp) {
         ij.io.FileInfo fi = imp.getOriginalFileInfo();

@@ -47,7 +47,7 @@ public class DifferenceSnrCommand implements PlugIn {
             GenericDialog gd = new GenericDialog(TITLE);
             gd.addChoice("Source:", new String[] {TWO_IMAGES, TWO_FRAMES}, twoImages ? TWO_IMAGES : TWO_FRAMES);
             gd.addImageChoice("First image:", current.getTitle());
-            gd.addImageChoice("Second image:", secondTitle(ids, current));
+            gd.addImageChoice("Second image:", DialogFields.otherTitle(current));
             gd.addNumericField("Frame_a:", 1, 0, 4, "(frame)");
             gd.addNumericField("Frame_b:", 2, 0, 4, "(frame)");
             gd.addNumericField("Channels (L):", 1, 0, 4, "(receive channels)");
@@ -79,18 +79,6 @@ public class DifferenceSnrCommand implements PlugIn {
             Face.overlay(first, signal, List.of());
             Face.reactivate(first);
         });
-    }
-
-    private static String secondTitle(int[] ids, ImagePlus current) {
-        if (ids != null) {
-            for (int id : ids) {
-                ImagePlus imp = WindowManager.getImage(id);
-                if (imp != null && imp != current) {
-                    return imp.getTitle();
-                }
-            }
-        }
-        return current.getTitle();
     }
 
     /** Two images of the same size; per slice when they are stacks. Never modifies them. */

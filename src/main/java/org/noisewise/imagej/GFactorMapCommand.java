@@ -38,7 +38,7 @@ public class GFactorMapCommand implements PlugIn {
             RegionRoles regions = RegionRoles.of(current);
             GenericDialog gd = new GenericDialog(TITLE);
             gd.addImageChoice("Full (unaccelerated):", current.getTitle());
-            gd.addImageChoice("Accelerated:", CompareProtocolsCommand.otherTitle(ids, current));
+            gd.addImageChoice("Accelerated:", DialogFields.otherTitle(current));
             gd.addNumericField("Acceleration (R):", 2, 2, 5, "(factor)");
             gd.addNumericField("Window for the map:", 0, 0, 4, "pixels (odd; 0 = default)");
             gd.addNumericField("Channels (L):", 1, 0, 4, "(receive channels)");

@@ -7,6 +7,7 @@ import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.RepeatedAcquisitions;
 import org.noisewise.io.ImagePlanes;
+import org.noisewise.io.RepeatedMaps;
 import org.noisewise.io.ProtocolHeaders;
 import org.noisewise.io.StackPlanes;
 import org.noisewise.protocol.Protocol;
@@ -60,8 +61,8 @@ public final class CompareMeasure {
             int z = zs[i];
             progress.report((double) i / zs.length, "Compare protocols: z " + z);
             boolean series = kindA.equals("repeated");
-            RepeatedAcquisitions.Maps ma = series ? InputSnr.maps(a, z) : null;
-            RepeatedAcquisitions.Maps mb = series ? InputSnr.maps(b, z) : null;
+            RepeatedAcquisitions.Maps ma = series ? RepeatedMaps.compute(a, z) : null;
+            RepeatedAcquisitions.Maps mb = series ? RepeatedMaps.compute(b, z) : null;
             for (Region reg : roles.signals()) {
                 InputSnr sa = InputSnr.measure(a, titleA, z, reg, roles.background(), channels, ma);
                 InputSnr sb = InputSnr.measure(b, titleB, z, reg, roles.background(), channels, mb);

@@ -7,6 +7,7 @@ import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.RepeatedAcquisitions;
 import org.noisewise.io.ImagePlanes;
+import org.noisewise.io.RepeatedMaps;
 import org.noisewise.io.ResultImages;
 import org.noisewise.io.StackPlanes;
 import org.noisewise.protocol.GFactor;
@@ -65,8 +66,8 @@ public final class GFactorMeasure {
         for (int i = 0; i < zs.length; i++) {
             int z = zs[i];
             progress.report((double) i / zs.length, "g-factor: z " + z + " of " + zCount);
-            RepeatedAcquisitions.Maps mf = InputSnr.maps(full, z);
-            RepeatedAcquisitions.Maps ma = InputSnr.maps(accel, z);
+            RepeatedAcquisitions.Maps mf = RepeatedMaps.compute(full, z);
+            RepeatedAcquisitions.Maps ma = RepeatedMaps.compute(accel, z);
             float[] g = GFactor.map(mf.mean(), mf.sd(), ma.mean(), ma.sd(), full.getWidth(), full.getHeight(),
                     acceleration, w);
             if (maps) {

@@ -34,11 +34,6 @@ record InputSnr(String method, CorrectedSnr figures, int repeats) {
         return k >= 3 ? "repeated" : k == 2 ? "difference" : "background";
     }
 
-    /** Temporal maps of z slice {@code z} (for a pair, K = 2). */
-    static RepeatedAcquisitions.Maps maps(ImagePlus imp, int z) throws InputException {
-        return RepeatedMaps.compute(imp, z);
-    }
-
     /**
      * @param maps the slice's temporal maps when already computed (series), else null
      */
@@ -60,10 +55,9 @@ record InputSnr(String method, CorrectedSnr figures, int repeats) {
             throw new InputException("'" + title + "' is a single image, so its SNR comes from background regions: give "
                     + "background regions in air, or use a pair or a series of repeated acquisitions");
         }
-        int plane = z;
-        BackgroundSnrResult r = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, plane), imp.getWidth(),
+        BackgroundSnrResult r = BackgroundSnr.analyze(ImagePlanes.calibratedPixels(imp, z), imp.getWidth(),
                 imp.getHeight(), signal, background, new BackgroundSnr.Options(channels, SigmaEstimator.ML,
-                        ImageMetadata.phaseDirection(imp), BackgroundValues.storage(imp, plane)));
+                        ImageMetadata.phaseDirection(imp), BackgroundValues.storage(imp, z)));
         if (r.figures() == null || r.verdict() == Verdict.INVALID) {
             throw new InputException("the background of '" + title + "' is not valid for an SNR ("
                     + String.join("; ", r.diagnosis().reasons().stream().map(w -> w.message()).toList())

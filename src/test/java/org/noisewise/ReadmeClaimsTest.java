@@ -75,6 +75,30 @@ class ReadmeClaimsTest {
         assertTrue(readme.contains(String.format(Locale.ROOT, "%.0f%% too high", 100 * (hand / truth - 1))));
     }
 
+    /**
+     * The DICOM worked example: the README's command on the bundled folder prints the note and, per
+     * slice, the SNR and its interval to the digits the README shows; each interval holds its true SNR.
+     */
+    @Test
+    void dicomWorkedExample() throws Exception {
+        Run r = cli("repeat", "sample-images/aster_multislice_dicom", "--signal", "24,24,16,16", "--json");
+        assertEquals(0, r.status(), r.err());
+        String readme = readme();
+        String note = r.err().lines().filter(l -> l.contains("slices x")).findFirst().orElseThrow();
+        assertTrue(readme.contains(note), "README lacks the note: " + note);
+        com.google.gson.JsonArray rows = JsonParser.parseString(r.out()).getAsJsonArray();
+        for (int z = 1; z <= 4; z++) {
+            JsonObject o = rows.get(z - 1).getAsJsonObject();
+            String line = String.format(Locale.ROOT, "%-6d %-16.1f %-12.1f %-13.1f %d", z, o.get("snr").getAsDouble(),
+                    o.getAsJsonArray("snr_ci95").get(0).getAsDouble(), o.getAsJsonArray("snr_ci95").get(1).getAsDouble(),
+                    o.get("repeats").getAsInt());
+            assertTrue(readme.contains(line), "README lacks the row: " + line);
+            double truth = org.noisewise.sample.DicomSample.trueSnr(z);
+            assertTrue(o.getAsJsonArray("snr_ci95").get(0).getAsDouble() <= truth
+                    && truth <= o.getAsJsonArray("snr_ci95").get(1).getAsDouble(), "slice " + z);
+        }
+    }
+
     /** "On the bundled 24-repeat sample at a true SNR of 2, the raw mean is 14% high and the corrected one within 0.5%." */
     @Test
     void repeatsSampleStatement() throws Exception {
@@ -124,7 +148,7 @@ class ReadmeClaimsTest {
         assertEquals("weekly", row.get("protocol"));
     }
 
-    /** A folder's DICOM files are grouped by 0020,000E and ordered by 0020,0013, then by position 0020,0032. */
+    /** A folder's DICOM files are grouped by 0020,000E and its slices ordered by position along the normal (0020,0032). */
     @Test
     void seriesGroupingAndOrder() throws Exception {
         byte[] d;
@@ -135,6 +159,7 @@ class ReadmeClaimsTest {
         double[] z = {20, 0, 10};
         for (int i = 0; i < 3; i++) {
             byte[] e = DicomEdit.set(d, 0x0020, 0x0013, "IS", "1");
+            e = DicomEdit.set(e, 0x0008, 0x0018, "UI", "1.2.826.0.1.3680043.9.7890." + (i + 1));
             e = DicomEdit.set(e, 0x0020, 0x0032, "DS", "0\\0\\" + (int) z[i]);
             e = DicomEdit.set(e, 0x0028, 0x1052, "DS", String.valueOf((int) z[i] * 100));
             e = DicomEdit.set(e, 0x0028, 0x1053, "DS", "1");

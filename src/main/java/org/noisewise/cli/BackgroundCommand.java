@@ -39,6 +39,9 @@ public class BackgroundCommand implements Callable<Integer> {
     @Mixin
     ChannelsOption channelOption;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--estimator", paramLabel = "NAME", defaultValue = "ml",
             description = "Sigma reported: ml (default), mean, sd or median. All four are always listed.")
     String estimator;
@@ -69,8 +72,8 @@ public class BackgroundCommand implements Callable<Integer> {
         PhaseDirection dir = phase == null ? null : parsePhase(phase);
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "background");
         progress.report(0.0, "reading " + image.getFileName());
-        ImagePlus imp = ImageFiles.open(image);
-        ImagePlus other = second == null ? null : ImageFiles.open(second);
+        ImagePlus imp = ImageFiles.open(image, echoOption.get());
+        ImagePlus other = second == null ? null : ImageFiles.open(second, echoOption.get());
         Measurement m = measure(imp, image.getFileName().toString(), regions, channels, est, dir, slice, other,
                 progress);
         Output.notes(spec.commandLine().getErr(), "background", m.notes());

@@ -60,6 +60,9 @@ public class BatchCommand implements Callable<Integer> {
     @Mixin
     ChannelsOption channelOption;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--estimator", paramLabel = "NAME", defaultValue = "ml", description = "background: ml, mean, sd or median.")
     String estimator;
 
@@ -130,8 +133,9 @@ public class BatchCommand implements Callable<Integer> {
         for (int i = 0; i < items.size(); i++) {
             Item item = items.get(i);
             try {
-                ImagePlus imp = item.series() != null ? DicomSeries.open(item.series(), item.name())
-                        : ImageFiles.open(item.path());
+                ImagePlus imp = item.series() != null
+                        ? DicomSeries.open(item.series(), item.name(), echoOption.get(), ImageFiles.ECHO_HINT)
+                        : ImageFiles.open(item.path(), echoOption.get());
                 List<ResultRow> r = switch (method) {
                     case background -> BackgroundCommand.measure(imp, item.name(), regions, channels, est, dir, slice,
                             null, Progress.NONE).rows();

@@ -36,6 +36,9 @@ public class CheckCommand implements Callable<Integer> {
     @Mixin
     ChannelsOption channelOption;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--slice", paramLabel = "N", description = "1-based slice (default: every slice).")
     Integer slice;
 
@@ -64,7 +67,7 @@ public class CheckCommand implements Callable<Integer> {
         }
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "check");
         progress.report(0.0, "reading " + image.getFileName());
-        ImagePlus imp = ImageFiles.open(image);
+        ImagePlus imp = ImageFiles.open(image, echoOption.get());
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         RegionOptions.require(roles, false, false, true);
         Measurement m = CheckMeasure.run(imp, image.getFileName().toString(), roles,

@@ -41,6 +41,9 @@ public class CompareCommand implements Callable<Integer> {
     @Mixin
     ChannelsOption channelOption;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--from", paramLabel = "PROTOCOL", description = "Protocol of IMAGE_A (over its header).")
     String from;
 
@@ -66,8 +69,8 @@ public class CompareCommand implements Callable<Integer> {
         Protocol pa = from == null ? null : ProtocolArgument.resolve(from, "--from");
         Protocol pb = to == null ? null : ProtocolArgument.resolve(to, "--to");
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "compare");
-        ImagePlus a = ImageFiles.open(imageA);
-        ImagePlus b = ImageFiles.open(imageB);
+        ImagePlus a = ImageFiles.open(imageA, echoOption.get());
+        ImagePlus b = ImageFiles.open(imageB, echoOption.get());
         Roles roles = regions.resolve(a.getWidth(), a.getHeight());
         RegionOptions.require(roles, true, false, false);
         Measurement m = CompareMeasure.run(a, imageA.getFileName().toString(), b, imageB.getFileName().toString(), pa, pb,

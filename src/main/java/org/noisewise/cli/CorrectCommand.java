@@ -44,6 +44,9 @@ public class CorrectCommand implements Callable<Integer> {
     @Mixin
     ChannelsOption channelOption;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--method", paramLabel = "koay|power|local", defaultValue = "koay",
             description = "Correction (default: ${DEFAULT-VALUE}).")
     String method;
@@ -76,7 +79,7 @@ public class CorrectCommand implements Callable<Integer> {
         ImageWriter.checkWritable(out, force, image);
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "correct");
         progress.report(0.0, "reading " + image.getFileName());
-        ImagePlus imp = ImageFiles.open(image);
+        ImagePlus imp = ImageFiles.open(image, echoOption.get());
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         if (sigma == 0 && roles.background().isEmpty()) {
             throw new InputException("give --sigma s, or --background regions (in air) to measure it on each slice");

@@ -5,6 +5,7 @@ import org.noisewise.measure.GFactorMeasure;
 import org.noisewise.measure.Progress;
 import org.noisewise.measure.Roles;
 import org.noisewise.measure.StabilityMeasure;
+import org.noisewise.sample.DicomSample;
 import org.noisewise.sample.ProtocolSamples;
 import org.noisewise.sample.StabilitySample;
 import ij.ImagePlus;
@@ -94,6 +95,8 @@ public class DemoCommand implements Callable<Integer> {
         stability();
         heading("7. Protocols: predicted against measured SNR ratio, and the g-factor of parallel imaging");
         protocols();
+        heading("8. A DICOM series as the scanner exports it: every slice measured on its own");
+        dicomSeries();
         out.println();
         out.println("Hand method = signal mean / SD of air, uncorrected: too high by 1/0.655 = 1.53x for one channel.");
         out.println("For image-quality QA and research only, not diagnosis; acceptance decisions rest with your site's");
@@ -117,6 +120,25 @@ public class DemoCommand implements Callable<Integer> {
         out.printf(Locale.ROOT, ROW, "percent fluctuation", fmt(StabilitySample.truePercentFluctuation()),
                 fmt(r.percentFluctuation()), "");
         out.printf(Locale.ROOT, ROW, "radius of decorrelation", fmt(StabilitySample.trueRdc()), fmt(r.rdc()), "");
+    }
+
+    /** The bundled DICOM folder: arranged from its headers, the repeated method per slice beside the truth. */
+    private void dicomSeries() throws InputException {
+        Path folder = samples.resolve(DicomSample.FOLDER);
+        ImagePlus imp = ImageFiles.open(folder);
+        Rect r = DicomSample.SIGNAL;
+        Region sig = Region.rectangle("signal", r.x(), r.y(), r.w(), r.h(), imp.getWidth(), imp.getHeight());
+        var m = org.noisewise.measure.RepeatedMeasure.run(imp, DicomSample.FOLDER, Roles.of(sig, List.of()), 1,
+                org.noisewise.measure.Planes.allZ(imp), false, Progress.NONE);
+        out.printf(Locale.ROOT, "%n%s/  (%d files)%n", DicomSample.FOLDER, imp.getStackSize());
+        out.println("  read as " + org.noisewise.io.Arrangement.note(imp).replaceFirst("^'[^']*': ", ""));
+        out.printf(Locale.ROOT, ROW, "", "true", "measured", "95% interval");
+        for (int z = 1; z <= DicomSample.SLICES; z++) {
+            var row = m.rows().get(z - 1);
+            out.printf(Locale.ROOT, ROW, "slice " + z + ", SNR (corrected)", fmt(DicomSample.trueSnr(z)),
+                    fmt(((Number) row.get("snr")).doubleValue()), ci(((Number) row.get("snr_ci95[0]")).doubleValue(),
+                            ((Number) row.get("snr_ci95[1]")).doubleValue()));
+        }
     }
 
     /** The bundled protocol series: 2 against 8 averages (predicted ratio 2), and R = 2 with a g ramp. */

@@ -41,6 +41,9 @@ public class DifferenceCommand implements Callable<Integer> {
     @Mixin
     ChannelsOption channelOption;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--slice", paramLabel = "N", description = "1-based slice (z) to measure (default: every slice).")
     Integer slice;
 
@@ -63,8 +66,8 @@ public class DifferenceCommand implements Callable<Integer> {
             if (frames != null) {
                 throw new InputException("give either two images or one stack with --frames, not both");
             }
-            ImagePlus a = ImageFiles.open(images.get(0));
-            ImagePlus b = ImageFiles.open(images.get(1));
+            ImagePlus a = ImageFiles.open(images.get(0), echoOption.get());
+            ImagePlus b = ImageFiles.open(images.get(1), echoOption.get());
             Roles roles = regions.resolve(a.getWidth(), a.getHeight());
             RegionOptions.require(roles, true, false, false);
             m = DifferenceMeasure.images(a, images.get(0).getFileName().toString(), b,
@@ -74,10 +77,11 @@ public class DifferenceCommand implements Callable<Integer> {
                 throw new InputException("one image was given: add a second image, or --frames a,b to use two frames "
                         + "of this stack");
             }
-            ImagePlus imp = ImageFiles.open(images.get(0));
+            ImagePlus imp = ImageFiles.open(images.get(0), echoOption.get());
             m = frames(imp, images.get(0).getFileName().toString(), regions, frames, channels, slice, progress);
         }
         Output.print(spec.commandLine().getOut(), m.rows(), json);
+        Output.notes(spec.commandLine().getErr(), "difference", m.notes());
         return 0;
     }
 

@@ -43,6 +43,9 @@ public class GFactorCommand implements Callable<Integer> {
     @Mixin
     ChannelsOption channelOption;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--window", paramLabel = "N", description = "Odd side of the window over which the pixel map "
             + "averages variances (default 1 for series, " + GFactorMeasure.PAIR_WINDOW + " when an input is a pair).")
     Integer window;
@@ -67,8 +70,8 @@ public class GFactorCommand implements Callable<Integer> {
     public Integer call() throws InputException {
         int channels = channelOption.get();
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "gfactor");
-        ImagePlus f = ImageFiles.open(full);
-        ImagePlus a = ImageFiles.open(accel);
+        ImagePlus f = ImageFiles.open(full, echoOption.get());
+        ImagePlus a = ImageFiles.open(accel, echoOption.get());
         Roles roles = regions.resolve(f.getWidth(), f.getHeight());
         if (roles.signal().isEmpty() && map == null) {
             throw new InputException("nothing to do: give --signal x,y,w,h for the region's g-factor and/or --map "

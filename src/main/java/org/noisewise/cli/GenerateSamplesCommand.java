@@ -13,6 +13,8 @@ import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.noisewise.estimate.InputException;
 import org.noisewise.report.Formats;
+import org.noisewise.io.DicomSeriesWriter;
+import org.noisewise.sample.DicomSample;
 import org.noisewise.sample.SampleCatalog;
 import org.noisewise.sample.ProtocolSamples;
 import org.noisewise.sample.StabilitySample;
@@ -58,6 +60,8 @@ public class GenerateSamplesCommand implements Callable<Integer> {
                 writeProtocolSeries(out, ps);
                 truth.add(protocolTruth(ps));
             }
+            writeDicomSeries(out);
+            truth.add(dicomTruth());
             JsonObject root = new JsonObject();
             root.addProperty("scenario", "Invented: the imaging-physics bench of the fictional Fernhollow Institute.");
             root.addProperty("generator", "org.noisewise.sample.SampleCatalog (java -jar target/noisewise.jar generate-samples)");
@@ -109,6 +113,60 @@ public class GenerateSamplesCommand implements Callable<Integer> {
         if (!new FileSaver(imp).saveAsTiffStack(out.resolve(ps.file()).toString())) {
             throw new InputException("could not write " + out.resolve(ps.file()));
         }
+    }
+
+    /** The DICOM series sample as a scanner writes it: one file per image in a folder of its own. */
+    static void writeDicomSeries(Path out) throws IOException {
+        Path folder = out.resolve(DicomSample.FOLDER);
+        Files.createDirectories(folder);
+        DicomSeriesWriter.Spec spec = dicomSpec();
+        for (DicomSeriesWriter.File f : DicomSeriesWriter.singleFrame(spec)) {
+            Files.write(folder.resolve(f.name()), f.bytes());
+        }
+    }
+
+    /** The bundled DICOM series' description for the writer. */
+    public static DicomSeriesWriter.Spec dicomSpec() {
+        DicomSeriesWriter.Spec spec = new DicomSeriesWriter.Spec(DicomSample.FOLDER, DicomSample.SIZE,
+                DicomSample.SIZE, DicomSample.SLICES, DicomSample.REPEATS)
+                .geometry(DicomSample.PIXEL_MM, DicomSample.THICKNESS_MM, DicomSample.STEP_MM)
+                .origin(-128, -128, -9);
+        for (int z = 1; z <= DicomSample.SLICES; z++) {
+            for (int t = 1; t <= DicomSample.REPEATS; t++) {
+                spec.image(z - 1, t - 1, DicomSample.stored(z, t), DicomSample.SLOPE, 0);
+            }
+        }
+        spec.common().text(0x00080020, "DA", "20261119").text(0x00080030, "TM", "093000")
+                .text(0x00080022, "DA", "20261119").text(0x00080032, "TM", "093012")
+                .text(0x00080070, "LO", "Fernhollow Institute (fictional)").text(0x00081090, "LO", "Aster")
+                .text(0x00100010, "PN", "PHANTOM^DISK").text(0x00181030, "LO", "weekly multislice")
+                .text(0x00180023, "CS", "2D").decimals(0x00180080, 500).decimals(0x00180083, 1)
+                .decimals(0x00180087, 1.5).integer(0x00180089, 64).decimals(0x00180095, 130)
+                .us(0x00181310, 64, 0, 0, 64).text(0x00181312, "CS", "COL")
+                .text(0x00081030, "LO", "Noisewise generated sample (invented scenario)");
+        return spec;
+    }
+
+    private static JsonObject dicomTruth() {
+        JsonObject o = new JsonObject();
+        o.addProperty("file", DicomSample.FOLDER + "/");
+        o.addProperty("description", DicomSample.DESCRIPTION);
+        o.addProperty("use", "dicom_series");
+        o.addProperty("slices", DicomSample.SLICES);
+        o.addProperty("frames", DicomSample.REPEATS);
+        o.addProperty("channels", 1);
+        JsonArray a = new JsonArray();
+        JsonArray snr = new JsonArray();
+        for (int z = 1; z <= DicomSample.SLICES; z++) {
+            a.add(DicomSample.amplitude(z));
+            snr.add(DicomSample.trueSnr(z));
+        }
+        o.add("amplitude_per_slice", a);
+        o.addProperty("sigma", DicomSample.SIGMA);
+        o.add("true_snr_per_slice", snr);
+        o.addProperty("seed", DicomSample.SEED);
+        o.addProperty("signal", DicomSample.SIGNAL.toString());
+        return o;
     }
 
     private static JsonObject protocolTruth(ProtocolSamples.Series ps) {

@@ -14,12 +14,14 @@ import picocli.CommandLine.Command;
 @Command(name = "noisewise", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = {"Corrected noise and SNR measurement for MR magnitude images.",
                 "For image-quality QA and research; not a diagnostic device. Where results feed acceptance or "
-                        + "safety decisions, defer to your site's qualified medical physicist and local regulations."},
-        subcommands = {BackgroundCommand.class, DifferenceCommand.class, RepeatCommand.class, CheckCommand.class,
-                CorrectCommand.class, QaCommand.class, StabilityCommand.class,
-                PredictCommand.class, CompareCommand.class, GFactorCommand.class, BatchCommand.class, DemoCommand.class, GenerateSamplesCommand.class,
-                CommandLine.HelpCommand.class})
+                        + "safety decisions, defer to your site's qualified medical physicist and local regulations."})
 public class NoisewiseCli implements Runnable {
+
+    /** The subcommands, in the order the help lists them. */
+    static final java.util.List<Class<?>> COMMANDS = java.util.List.of(BackgroundCommand.class,
+            DifferenceCommand.class, RepeatCommand.class, CheckCommand.class, CorrectCommand.class, QaCommand.class,
+            StabilityCommand.class, PredictCommand.class, CompareCommand.class, GFactorCommand.class,
+            BatchCommand.class, DemoCommand.class, GenerateSamplesCommand.class);
 
     public static final int EXIT_INPUT = 3;
     public static final int EXIT_INTERNAL = 1;
@@ -40,6 +42,21 @@ public class NoisewiseCli implements Runnable {
     /** Runs one command line with the given streams; returns the exit status. */
     public static int execute(String[] args, PrintWriter out, PrintWriter err) {
         CommandLine cl = new CommandLine(new NoisewiseCli());
+        // a command line naming one command sets up only that one (a faster start); otherwise all of them
+        Class<?> named = null;
+        if (args.length > 0) {
+            for (Class<?> c : COMMANDS) {
+                if (c.getAnnotation(Command.class).name().equals(args[0])) {
+                    named = c;
+                }
+            }
+        }
+        for (Class<?> c : COMMANDS) {
+            if (named == null || c == named) {
+                cl.addSubcommand(c.getAnnotation(Command.class).name(), c);
+            }
+        }
+        cl.addSubcommand("help", new CommandLine.HelpCommand());
         cl.setOut(out);
         cl.setErr(err);
         cl.setExecutionExceptionHandler((ex, commandLine, parseResult) -> {

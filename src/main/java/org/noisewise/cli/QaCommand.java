@@ -63,6 +63,9 @@ public class QaCommand implements Callable<Integer> {
     @Mixin
     ChannelsOption channelOption;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--slice", paramLabel = "N", defaultValue = "1", description = "1-based z slice (default: ${DEFAULT-VALUE}).")
     int slice;
 
@@ -91,8 +94,8 @@ public class QaCommand implements Callable<Integer> {
         Integer channels = channelOption.get(true);
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "qa");
         progress.report(0.0, "reading " + images.get(0).getFileName());
-        ImagePlus first = ImageFiles.open(images.get(0));
-        ImagePlus second = images.size() > 1 ? ImageFiles.open(images.get(1)) : null;
+        ImagePlus first = ImageFiles.open(images.get(0), echoOption.get());
+        ImagePlus second = images.size() > 1 ? ImageFiles.open(images.get(1), echoOption.get()) : null;
         if (trends != null && log == null) {
             throw new InputException("--trends plots the QA log: give --log qa.csv as well");
         }

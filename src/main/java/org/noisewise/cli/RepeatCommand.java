@@ -39,6 +39,9 @@ public class RepeatCommand implements Callable<Integer> {
     @Mixin
     ChannelsOption channelOption;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--slice", paramLabel = "N", description = "1-based z slice of a hyperstack (default: every one).")
     Integer slice;
 
@@ -60,7 +63,7 @@ public class RepeatCommand implements Callable<Integer> {
         int channels = channelOption.get();
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "repeat");
         progress.report(0.0, "reading " + image.getFileName());
-        ImagePlus imp = ImageFiles.open(image);
+        ImagePlus imp = ImageFiles.open(image, echoOption.get());
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         if (roles.signal().isEmpty() && map == null) {
             throw new InputException("nothing to do: give --signal x,y,w,h for a summary and/or --map OUT.tif for maps");
@@ -79,6 +82,7 @@ public class RepeatCommand implements Callable<Integer> {
         if (!m.rows().isEmpty()) {
             Output.print(spec.commandLine().getOut(), m.rows(), json);
         }
+        Output.notes(spec.commandLine().getErr(), "repeat", m.notes());
         return 0;
     }
 

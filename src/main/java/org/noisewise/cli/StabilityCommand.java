@@ -53,6 +53,9 @@ public class StabilityCommand implements Callable<Integer> {
     @Mixin
     RegionOptions regions;
 
+    @Mixin
+    EchoOption echoOption;
+
     @Option(names = "--maps", paramLabel = "OUT.tif", description = "Write the signal, fluctuation-noise, SFNR and "
             + "static-noise maps as a 4-slice TIFF (OUT_z2.tif ... when there are several z slices).")
     Path maps;
@@ -90,7 +93,7 @@ public class StabilityCommand implements Callable<Integer> {
             throw new InputException("--baseline needs at least 1 session, was " + logKeys.baseline);
         }
         progress.report(0.0, "reading " + image.getFileName());
-        ImagePlus imp = ImageFiles.open(image);
+        ImagePlus imp = ImageFiles.open(image, echoOption.get());
         int[] zs = Slices.selectZ(imp, slice);
         List<Path> outputs = new ArrayList<>();
         for (int z : zs) {

@@ -290,6 +290,14 @@ public final class RepeatedAcquisitions {
 
         float[] plane(int frame) throws InputException;
 
+        /** The calibrated values of frame {@code frame} at plane indices {@code indices}, into {@code out}. */
+        default void gather(int frame, int[] indices, double[] out) throws InputException {
+            float[] p = plane(frame);
+            for (int i = 0; i < indices.length; i++) {
+                out[i] = p[indices[i]];
+            }
+        }
+
         /** Frames already in memory. */
         static Frames of(float[][] frames) {
             return new Frames() {
@@ -391,12 +399,16 @@ public final class RepeatedAcquisitions {
         double[] mean = p.sample(maps.mean(), maps.width());
         SpatialCorrelation.LagSums sums = new SpatialCorrelation.LagSums(SpatialCorrelation.SQUARE_WINDOW);
         int k = frames.count();
+        int[][] members = p.members(maps.width());
+        double[] values = new double[members[0].length];
+        double[] r = new double[mean.length];
         // a few dozen frames measure the correlation well; more only cost time
         int step = Math.max(1, k / 64);
         for (int f = 0; f < k; f += step) {
-            double[] r = p.sample(frames.plane(f), maps.width());
-            for (int i = 0; i < r.length; i++) {
-                r[i] -= mean[i];
+            frames.gather(f, members[0], values);
+            for (int i = 0; i < values.length; i++) {
+                int b = members[1][i];
+                r[b] = values[i] - mean[b];
             }
             sums.add(p, r, 0.0);
         }

@@ -116,6 +116,25 @@ public final class SpatialCorrelation {
             return new Patch(minX, minY, w, h, in, n);
         }
 
+        /**
+         * The region's pixels in box order: {@code [0]} their indices in a plane {@code width} wide,
+         * {@code [1]} their positions in the box.
+         */
+        public int[][] members(int width) {
+            int[] plane = new int[n];
+            int[] box = new int[n];
+            int k = 0;
+            for (int y = 0; y < h; y++) {
+                for (int x = 0; x < w; x++) {
+                    if (in[y * w + x]) {
+                        plane[k] = (y0 + y) * width + x0 + x;
+                        box[k++] = y * w + x;
+                    }
+                }
+            }
+            return new int[][] {plane, box};
+        }
+
         /** The patch-local values of a plane. */
         public double[] sample(float[] plane, int width) {
             double[] out = new double[w * h];
@@ -194,6 +213,10 @@ public final class SpatialCorrelation {
             int h = p.h();
             boolean[] in = p.in();
             int stride = p.n() > MAX_ANCHORS ? (int) Math.ceil((double) p.n() / MAX_ANCHORS) : 1;
+            if (stride == 1) {
+                addEvery(w, h, in, q, mean);
+                return;
+            }
             int seen = 0;
             for (int y = 0; y < h; y++) {
                 for (int x = 0; x < w; x++) {
@@ -217,6 +240,44 @@ public final class SpatialCorrelation {
                         }
                     }
                 }
+            }
+        }
+
+        /**
+         * Every pixel of the patch as an anchor, lag by lag over whole rows: the same sums as the
+         * pixel-by-pixel loop, in simple loops without branches (deviations are 0 outside the region,
+         * and the pair count is the product of the membership masks).
+         */
+        private void addEvery(int w, int h, boolean[] in, double[] q, double mean) {
+            int n = w * h;
+            double[] d = new double[n];
+            int[] m = new int[n];
+            for (int a = 0; a < n; a++) {
+                if (in[a]) {
+                    double da = q[a] - mean;
+                    d[a] = da;
+                    m[a] = 1;
+                    squares += da * da;
+                    count++;
+                }
+            }
+            for (int l = 0; l < lagX.length; l++) {
+                int hx = lagX[l];
+                int hy = lagY[l];
+                int xs = Math.max(0, -hx);
+                int xe = Math.min(w, w - hx);
+                double prod = 0;
+                long cnt = 0;
+                for (int y = 0; y + hy < h; y++) {
+                    int rowA = y * w;
+                    int rowB = (y + hy) * w + hx;
+                    for (int x = xs; x < xe; x++) {
+                        prod += d[rowA + x] * d[rowB + x];
+                        cnt += m[rowA + x] & m[rowB + x];
+                    }
+                }
+                products[l] += prod;
+                pairs[l] += cnt;
             }
         }
 

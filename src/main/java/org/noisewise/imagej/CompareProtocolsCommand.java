@@ -101,8 +101,9 @@ public class CompareProtocolsCommand implements PlugIn {
             throw new InputException("There is no signal region: draw one on image A, or add a region named 'signal' "
                     + "to the ROI Manager.");
         }
-        int[] zs = allSlices || StackPlanes.zCount(a) == 1 ? Planes.allZ(a) : new int[] {a.getSlice()};
-        return CompareMeasure.run(a, a.getTitle(), b, b.getTitle(), from, to, fieldExponent,
+        ImagePlus seriesA = Face.series(a);
+        int[] zs = allSlices ? Planes.allZ(seriesA) : new int[] {Face.currentZ(seriesA, a)};
+        return CompareMeasure.run(seriesA, a.getTitle(), Face.series(b), b.getTitle(), from, to, fieldExponent,
                 RegionRoles.roles(signal, background, a), channels, zs, ImageJProgress.INSTANCE);
     }
 

@@ -37,7 +37,7 @@ public class DifferenceSnrCommand implements PlugIn {
             Face.checkImage(current, TITLE);
             int[] ids = WindowManager.getIDList();
             boolean twoImages = ids != null && ids.length >= 2;
-            if (!twoImages && StackPlanes.repeatCount(current) < 2) {
+            if (!twoImages && StackPlanes.repeatCount(Face.series(current)) < 2) {
                 throw new InputException("The difference method needs two identical acquisitions: open both images, "
                         + "or one stack (or hyperstack time series) that holds both.");
             }
@@ -76,6 +76,7 @@ public class DifferenceSnrCommand implements PlugIn {
             Measurement m = frames ? measureFrames(first, a, b, signal, channels, all)
                     : measureImages(first, second, signal, channels, all);
             Face.show(TITLE, first, m.rows(), append);
+            Face.log(TITLE, m.notes());
             Face.overlay(first, signal, List.of());
             Face.reactivate(first);
         });
@@ -105,9 +106,9 @@ public class DifferenceSnrCommand implements PlugIn {
     static Measurement measureFrames(ImagePlus imp, int a, int b, List<Roi> signal, int channels, boolean allSlices)
             throws InputException {
         Face.checkImage(imp, TITLE);
-        int zs = StackPlanes.zCount(imp);
-        int[] planes = allSlices ? Planes.allZ(imp) : new int[] {zs == 1 ? 1 : imp.getSlice()};
-        return DifferenceMeasure.frames(imp, imp.getTitle(), a, b, roles(imp, signal), channels, planes,
+        ImagePlus series = Face.series(imp);
+        int[] planes = allSlices ? Planes.allZ(series) : new int[] {Face.currentZ(series, imp)};
+        return DifferenceMeasure.frames(series, imp.getTitle(), a, b, roles(imp, signal), channels, planes,
                 ImageJProgress.INSTANCE);
     }
 

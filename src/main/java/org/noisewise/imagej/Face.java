@@ -12,6 +12,8 @@ import java.awt.Color;
 import java.awt.Font;
 import java.util.List;
 import org.noisewise.estimate.InputException;
+import org.noisewise.io.Arrangement;
+import org.noisewise.io.StackPlanes;
 import org.noisewise.report.ResultRow;
 
 /**
@@ -28,7 +30,28 @@ final class Face {
     /** Property that marks overlay elements drawn by Noisewise (only these are replaced on a rerun). */
     static final String MARK = "noisewise.overlay";
 
+    /** How a Fiji user measures one echo of a multi-echo series. */
+    static final String ECHO_HINT = "make a stack of one echo with Plugins > Noisewise > Arrange Series... (choose "
+            + "the echo), then measure that stack";
+    /** The same, inside Arrange Series itself. */
+    static final String ECHO_HINT_ARRANGE = "choose one in the Echo field";
+
     private Face() {
+    }
+
+    /**
+     * The image as a series of z slices and repeats: a stack that ImageJ opened from DICOM (File > Import >
+     * Image Sequence, or an enhanced multi-frame file) arranged from its headers as a view that shares the
+     * pixels; otherwise the image itself. The user's image is not changed.
+     */
+    static ImagePlus series(ImagePlus imp) throws InputException {
+        return Arrangement.of(imp, null, ECHO_HINT);
+    }
+
+    /** The z slice the user is looking at, in the series made from {@code imp}. */
+    static int currentZ(ImagePlus series, ImagePlus imp) {
+        return series == imp ? (StackPlanes.zCount(imp) == 1 ? 1 : imp.getSlice())
+                : Arrangement.zOf(series, imp.getCurrentSlice());
     }
 
     /** The current image, or an error dialog in ImageJ's words and null. */

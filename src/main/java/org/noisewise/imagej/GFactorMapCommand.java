@@ -86,8 +86,9 @@ public class GFactorMapCommand implements PlugIn {
         if (full == accel) {
             throw new InputException("The same image was chosen twice: choose the full and the accelerated acquisition.");
         }
-        int[] zs = allSlices || StackPlanes.zCount(full) == 1 ? Planes.allZ(full) : new int[] {full.getSlice()};
-        return GFactorMeasure.run(full, full.getTitle(), accel, accel.getTitle(), acceleration,
+        ImagePlus fullSeries = Face.series(full);
+        int[] zs = allSlices ? Planes.allZ(fullSeries) : new int[] {Face.currentZ(fullSeries, full)};
+        return GFactorMeasure.run(fullSeries, full.getTitle(), Face.series(accel), accel.getTitle(), acceleration,
                 RegionRoles.roles(signal == null ? List.of() : signal, List.of(), full), channels, zs, window, map,
                 ImageJProgress.INSTANCE);
     }

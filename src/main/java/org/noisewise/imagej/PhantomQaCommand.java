@@ -70,7 +70,7 @@ public class PhantomQaCommand implements PlugIn {
             gd.addStringField("Report file (HTML, optional):", "", 30);
             gd.addStringField("Trends folder (a PNG per metric, needs a log; optional):", "", 30);
             gd.addCheckbox("Replace existing files (report, trend plots)", false);
-            gd.addNumericField("Slice:", imp.getSlice(), 0, 4, "(z, from 1)");
+            gd.addNumericField("Slice:", Face.currentZ(Face.series(imp), imp), 0, 4, "(z, from 1)");
             gd.addCheckbox("Repeats: the stack holds repeated acquisitions of one slice", false);
             Face.addAppend(gd);
             gd.addHelp(Face.help("Phantom QA"));
@@ -131,7 +131,8 @@ public class PhantomQaCommand implements PlugIn {
     public static QaMeasure.Outcome process(ImagePlus imp, ImagePlus second, QaRegions.Placement placement,
                                             QaMeasure.Options o) throws InputException {
         Face.checkImage(imp, TITLE);
-        return QaMeasure.run(imp, second, placement, o, DialogFields.sourceFile(imp), ImageJProgress.INSTANCE);
+        return QaMeasure.run(Face.series(imp), second == null ? null : Face.series(second), placement, o,
+                DialogFields.sourceFile(imp), ImageJProgress.INSTANCE);
     }
 
     /**

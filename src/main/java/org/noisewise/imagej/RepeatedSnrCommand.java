@@ -35,7 +35,7 @@ public class RepeatedSnrCommand implements PlugIn {
     public void run(String arg) {
         Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
-            if (StackPlanes.repeatCount(imp) < 2) {
+            if (StackPlanes.repeatCount(Face.series(imp)) < 2) {
                 throw new InputException("'" + imp.getTitle() + "' is a single image: the repeated-acquisition method "
                         + "needs a stack of at least 2 repeats of the same slice (or a hyperstack with time frames).");
             }
@@ -69,6 +69,7 @@ public class RepeatedSnrCommand implements PlugIn {
             }
             Measurement m = measure(imp, signal, channels, all, showMaps);
             m.images().forEach(Face::showNew);
+            Face.log(TITLE, m.notes());
             if (!m.rows().isEmpty()) {
                 Face.show(TITLE, imp, m.rows(), append);
                 Face.overlay(imp, signal, List.of());
@@ -89,9 +90,9 @@ public class RepeatedSnrCommand implements PlugIn {
     static Measurement measure(ImagePlus imp, List<Roi> signal, int channels, boolean allSlices, boolean maps)
             throws InputException {
         Face.checkImage(imp, TITLE);
-        int zs = StackPlanes.zCount(imp);
-        int[] planes = allSlices || zs == 1 ? Planes.allZ(imp) : new int[] {imp.getSlice()};
-        return RepeatedMeasure.run(imp, imp.getTitle(), RegionRoles.roles(signal == null ? List.of() : signal,
+        ImagePlus series = Face.series(imp);
+        int[] planes = allSlices ? Planes.allZ(series) : new int[] {Face.currentZ(series, imp)};
+        return RepeatedMeasure.run(series, imp.getTitle(), RegionRoles.roles(signal == null ? List.of() : signal,
                 List.of(), imp), channels, planes, maps, ImageJProgress.INSTANCE);
     }
 

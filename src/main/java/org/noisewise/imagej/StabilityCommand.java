@@ -42,7 +42,8 @@ public class StabilityCommand implements PlugIn {
     public void run(String arg) {
         Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
-            int frames = StackPlanes.repeatCount(imp);
+            ImagePlus series = Face.series(imp);
+            int frames = StackPlanes.repeatCount(series);
             if (frames < Stability.MIN_FRAMES) {
                 throw new InputException("'" + imp.getTitle() + "' has " + frames + " frame" + (frames == 1 ? "" : "s")
                         + ": the stability figures need a series of at least " + Stability.MIN_FRAMES + " frames (200 or "
@@ -93,7 +94,7 @@ public class StabilityCommand implements PlugIn {
                 throw new InputException("There are " + signal.size() + " signal regions: the stability figures use "
                         + "one. Select one region in the ROI Manager, or name only one 'signal'.");
             }
-            int[] zs = all || StackPlanes.zCount(imp) == 1 ? Planes.allZ(imp) : new int[] {imp.getSlice()};
+            int[] zs = all ? Planes.allZ(series) : new int[] {Face.currentZ(series, imp)};
             StabilityMeasure.Options o = new StabilityMeasure.Options(zs, skip, side, maps,
                     log.isEmpty() ? null : Path.of(log), report.isEmpty() ? null : Path.of(report), replace, scanner,
                     coil, protocol, baseline);
@@ -143,7 +144,7 @@ public class StabilityCommand implements PlugIn {
         Face.checkImage(imp, TITLE);
         List<Region> sig = new ArrayList<>(RegionRoles.roles(signal == null ? List.of() : List.of(signal), List.of(), imp)
                 .signal());
-        return StabilityMeasure.run(imp, imp.getTitle(), sig.isEmpty() ? null : sig.get(0), o,
+        return StabilityMeasure.run(Face.series(imp), imp.getTitle(), sig.isEmpty() ? null : sig.get(0), o,
                 DialogFields.sourceFile(imp), ImageJProgress.INSTANCE);
     }
 

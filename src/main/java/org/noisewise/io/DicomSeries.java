@@ -6,25 +6,27 @@ import ij.Prefs;
 import ij.io.Opener;
 import ij.measure.Calibration;
 import ij.process.FloatProcessor;
-import ij.process.ImageProcessor;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.Arrays;
-import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.stream.Stream;
+import org.noisewise.diagnose.BackgroundCheck;
+import org.noisewise.estimate.Blocks;
 import org.noisewise.estimate.InputException;
 
 /**
- * A DICOM series from a folder: files grouped by Series Instance UID (0020,000E), sorted by
- * Instance Number (0020,0013), then by position along the slice direction (0020,0032), then by
- * name; read through ImageJ's DICOM reader with {@code Prefs.fixedDicomScaling} so rescale slope
- * and intercept and signed data come through ImageJ's calibration. Slices that share one calibration
- * stay in their stored type; otherwise each slice is converted to its calibrated 32-bit values.
+ * A DICOM series as the scanner acquired it: the files of a folder grouped by Series Instance UID
+ * (0020,000E), or one multi-frame file, arranged as Z slices x T repeats by {@link SeriesLayout}
+ * from their headers and returned as an ImageJ hyperstack ({@code slices = Z, frames = T}). Files
+ * are read in one pass each ({@link DicomFile}: headers, per-frame functional groups and stored
+ * values), on every core; ImageJ's own DICOM reader gives the first file's header text (the image's
+ * {@code Info}, which the protocol and QA facts are read from). Rescale slope and intercept come
+ * through ImageJ's calibration when every image shares them, otherwise each plane is converted to
+ * its calibrated 32-bit values and keeps its own storage facts.
  */
 public final class DicomSeries {
 
@@ -33,6 +35,9 @@ public final class DicomSeries {
 
     /** One series found in a folder. */
     public record Series(String uid, List<Path> files) {
+        public Series {
+            files = List.copyOf(files);
+        }
     }
 
     /** The DICOM files directly in {@code folder}, grouped by series, in a deterministic order. */
@@ -43,14 +48,30 @@ public final class DicomSeries {
         } catch (IOException e) {
             throw new InputException("cannot list folder '" + folder + "': " + e.getMessage());
         }
-        Map<String, List<Path>> groups = new LinkedHashMap<>();
-        for (Path f : files) {
-            if (!isDicom(f)) {
-                continue;
+        String[] uids = new String[files.size()];
+        boolean[] dicom = new boolean[files.size()];
+        Blocks.tasks(files.size(), i -> {
+            Path f = files.get(i);
+            DicomFile d;
+            try {
+                d = DicomFile.read(f, false);
+            } catch (InputException e) {
+                d = null;
+                dicom[i] = isDicom(f);
             }
-            ImagePlus header = openSilently(f);
-            String uid = header == null ? null : ImageMetadata.tag(header, "0020,000E");
-            groups.computeIfAbsent(uid == null ? "(no series UID)" : uid, k -> new ArrayList<>()).add(f);
+            if (d != null) {
+                dicom[i] = true;
+                uids[i] = d.seriesUid();
+            } else if (!dicom[i]) {
+                dicom[i] = isDicom(f);
+            }
+        });
+        Map<String, List<Path>> groups = new LinkedHashMap<>();
+        for (int i = 0; i < files.size(); i++) {
+            if (dicom[i]) {
+                groups.computeIfAbsent(uids[i] == null ? "(no series UID)" : uids[i], k -> new ArrayList<>())
+                        .add(files.get(i));
+            }
         }
         List<Series> out = new ArrayList<>();
         groups.forEach((uid, list) -> out.add(new Series(uid, list)));
@@ -70,72 +91,243 @@ public final class DicomSeries {
         return new Opener().getFileType(f.toString()) == Opener.DICOM;
     }
 
-    /** Opens one series as a stack. */
-    public static ImagePlus open(Series series, String title) throws InputException {
-        Prefs.fixedDicomScaling = true;
-        List<ImagePlus> slices = new ArrayList<>();
-        for (Path f : series.files()) {
-            FileChecks.requireDecodableDicom(f);
-            ImagePlus imp = read(f);
-            if (imp == null) {
-                throw new InputException("cannot read DICOM file '" + f + "': ImageJ does not recognise its contents "
+    /**
+     * Opens the one series a folder holds as a Z x T hyperstack, reading each file once (headers and
+     * pixels together); an error names the number of series when there are several.
+     */
+    public static ImagePlus openFolder(Path folder, String title, Integer echo, String echoHint)
+            throws InputException {
+        List<Path> all;
+        try (Stream<Path> s = Files.list(folder)) {
+            all = s.filter(Files::isRegularFile).sorted().toList();
+        } catch (IOException e) {
+            throw new InputException("cannot list folder '" + folder + "': " + e.getMessage());
+        }
+        if (all.isEmpty()) {
+            throw new InputException("folder '" + folder + "' holds no DICOM files: give an image file or a folder of "
+                    + "one DICOM series");
+        }
+        // ImageJ's header text of the first file (its Info) is read while the files are parsed
+        java.util.concurrent.CompletableFuture<String> info = java.util.concurrent.CompletableFuture.supplyAsync(
+                () -> headerText(all.get(0)));
+        DicomFile[] files = new DicomFile[all.size()];
+        InputException[] failed = new InputException[all.size()];
+        boolean[] dicom = new boolean[all.size()];
+        Blocks.tasks(all.size(), i -> {
+            try {
+                files[i] = DicomFile.read(all.get(i), true);
+                dicom[i] = files[i] != null || isDicom(all.get(i));
+            } catch (InputException e) {
+                failed[i] = e;
+                dicom[i] = true;
+            }
+        });
+        for (InputException e : failed) {
+            if (e != null) {
+                // a damaged file cannot be placed in any series: say what is wrong with it
+                throw e;
+            }
+        }
+        Map<String, List<Integer>> groups = new LinkedHashMap<>();
+        for (int i = 0; i < all.size(); i++) {
+            if (dicom[i]) {
+                String uid = files[i] == null ? null : files[i].seriesUid();
+                groups.computeIfAbsent(uid == null ? "(no series UID)" : uid, k -> new ArrayList<>()).add(i);
+            }
+        }
+        if (groups.isEmpty()) {
+            throw new InputException("folder '" + folder + "' holds no DICOM files: give an image file or a folder of "
+                    + "one DICOM series");
+        }
+        if (groups.size() > 1) {
+            throw new InputException("folder '" + folder + "' holds " + groups.size() + " DICOM series: give a folder "
+                    + "with one series, or use batch");
+        }
+        List<Integer> members = groups.values().iterator().next();
+        List<DicomFile> read = new ArrayList<>();
+        for (int i : members) {
+            if (files[i] == null) {
+                throw new InputException("cannot read DICOM file '" + all.get(i) + "': it does not look like DICOM "
                         + "(damaged, or not an image); remove it from the folder or export the series again");
             }
-            FileChecks.requireWhole(f, imp);
-            ImagePlanes.requireGrayscale(imp);
-            slices.add(imp);
+            read.add(files[i]);
         }
-        if (slices.isEmpty()) {
+        String text = members.get(0) == 0 ? info.join() : headerText(read.get(0).path());
+        return assemble(read.toArray(new DicomFile[0]), title, echo, echoHint, text);
+    }
+
+    /**
+     * Opens one series as a Z x T hyperstack.
+     *
+     * @param echo     the echo to keep (1-based) when the series holds several, or null
+     * @param echoHint what the user does to choose an echo, in the face's words
+     */
+    public static ImagePlus open(Series series, String title, Integer echo, String echoHint) throws InputException {
+        List<Path> paths = series.files();
+        if (paths.isEmpty()) {
             throw new InputException("no DICOM files in series " + series.uid());
         }
-        slices.sort(Comparator.comparingDouble((ImagePlus i) -> number(ImageMetadata.tag(i, "0020,0013")))
-                .thenComparingDouble(i -> position(ImageMetadata.tag(i, "0020,0032"))));
-        ImagePlus first = slices.get(0);
-        int w = first.getWidth();
-        int h = first.getHeight();
-        boolean sameCalibration = true;
-        for (ImagePlus s : slices) {
-            if (s.getWidth() != w || s.getHeight() != h) {
-                throw new InputException("the series mixes image sizes (" + w + "x" + h + " and " + s.getWidth() + "x"
-                        + s.getHeight() + "): put each series in its own folder");
+        DicomFile[] files = new DicomFile[paths.size()];
+        InputException[] failed = new InputException[paths.size()];
+        Blocks.tasks(paths.size(), i -> {
+            try {
+                files[i] = DicomFile.read(paths.get(i), true);
+                if (files[i] == null) {
+                    failed[i] = new InputException("cannot read DICOM file '" + paths.get(i) + "': it does not look "
+                            + "like DICOM (damaged, or not an image); remove it from the folder or export the series "
+                            + "again");
+                }
+            } catch (InputException e) {
+                failed[i] = e;
             }
-            sameCalibration &= s.getBitDepth() == first.getBitDepth()
-                    && Arrays.equals(s.getCalibration().getCTable(), first.getCalibration().getCTable());
+        });
+        for (InputException e : failed) {
+            if (e != null) {
+                throw e;
+            }
         }
-        if (slices.size() == 1) {
-            return first;
+        return assemble(files, title, echo, echoHint, headerText(files[0].path()));
+    }
+
+    /** Opens one DICOM file (single- or multi-frame), arranged the same way. */
+    public static ImagePlus openFile(Path file, Integer echo, String echoHint) throws InputException {
+        DicomFile f = DicomFile.read(file, true);
+        if (f == null) {
+            return null;
+        }
+        return assemble(new DicomFile[] {f}, file.getFileName().toString(), echo, echoHint, headerText(file));
+    }
+
+    private static ImagePlus assemble(DicomFile[] files, String title, Integer echo, String echoHint, String info)
+            throws InputException {
+        DicomFile first = files[0];
+        int w = first.columns();
+        int h = first.rows();
+        List<SeriesLayout.Item> items = new ArrayList<>();
+        List<Object> planes = new ArrayList<>();
+        List<DicomFile.Frame> facts = new ArrayList<>();
+        List<DicomFile> owners = new ArrayList<>();
+        for (DicomFile f : files) {
+            if (!f.hasPixels()) {
+                throw new InputException("'" + f.path() + "' holds no pixel data: it is not an image; remove it from the "
+                        + "folder");
+            }
+            if (f.columns() != w || f.rows() != h) {
+                throw new InputException("the series mixes image sizes (" + w + "x" + h + " and " + f.columns() + "x"
+                        + f.rows() + "): put each series in its own folder");
+            }
+            boolean multi = f.frames().size() > 1;
+            for (DicomFile.Frame fr : f.frames()) {
+                String name = f.path().getFileName() + (multi ? " frame " + (fr.index() + 1) : "");
+                String key = f.sopInstance() == null ? null : f.sopInstance() + "#" + fr.index();
+                Integer temporal = f.enhanced() ? fr.temporalIndex() : f.temporal();
+                String temporalTag = f.enhanced() ? "Temporal Position Index (0020,9128)"
+                        : "Temporal Position Identifier (0020,0100)";
+                Double instance = multi ? (f.instance() == null ? 0 : f.instance()) * 1e6 + fr.index() + 1
+                        : f.instance();
+                Double echoValue = f.enhanced() ? fr.echoTime() : f.echoNumber();
+                String echoTag = f.enhanced() ? "Effective Echo Time (0018,9082), ms:" : "Echo Numbers (0018,0086)";
+                items.add(new SeriesLayout.Item(name, key, fr.position(), fr.orientation(), temporal, temporalTag,
+                        f.enhanced() ? null : f.acquisition(), instance, echoValue, echoTag));
+                planes.add(f.pixels().get(fr.index()));
+                facts.add(fr);
+                owners.add(f);
+            }
+        }
+        Double gap = smaller(first.thickness(), first.spacingBetween());
+        SeriesLayout.Layout layout = SeriesLayout.arrange(items, echo, echoHint, gap, first.statedRepeats());
+        int[] order = layout.order();
+        boolean sameStorage = true;
+        DicomFile.Frame f0 = facts.get(order[0]);
+        for (int idx : order) {
+            DicomFile.Frame fr = facts.get(idx);
+            DicomFile o = owners.get(idx);
+            sameStorage &= fr.slope() == f0.slope() && fr.intercept() == f0.intercept()
+                    && o.bitsAllocated() == owners.get(order[0]).bitsAllocated() && o.signed() == owners.get(order[0])
+                    .signed();
         }
         ImageStack stack = new ImageStack(w, h);
-        List<org.noisewise.diagnose.BackgroundCheck.Storage> storage = new ArrayList<>();
-        for (ImagePlus s : slices) {
-            for (int n = 1; n <= s.getStackSize(); n++) {
-                ImageProcessor ip = s.getStack().getProcessor(n);
-                storage.add(BackgroundValues.storage(s));
-                if (sameCalibration) {
-                    stack.addSlice(s.getTitle(), ip);
-                } else {
-                    stack.addSlice(s.getTitle(), new FloatProcessor(w, h, ImagePlanes.calibratedPixels(s, n)));
-                }
+        List<BackgroundCheck.Storage> storage = new ArrayList<>();
+        for (int idx : order) {
+            DicomFile.Frame fr = facts.get(idx);
+            DicomFile o = owners.get(idx);
+            Object px = planes.get(idx);
+            if (sameStorage) {
+                stack.addSlice(items.get(idx).name(), px);
+            } else {
+                stack.addSlice(items.get(idx).name(), new FloatProcessor(w, h, calibrated(px, fr, o.signed())));
+                storage.add(storageOf(fr, o));
             }
         }
         ImagePlus out = new ImagePlus(title, stack);
-        Calibration cal = first.getCalibration().copy();
-        if (!sameCalibration) {
-            // the slices were stored with different scaling: keep each slice's storage facts
-            cal.disableDensityCalibration();
-            out.setProperty(BackgroundValues.PER_SLICE_PROPERTY,
-                    storage.toArray(new org.noisewise.diagnose.BackgroundCheck.Storage[0]));
+        out.setDimensions(1, layout.slices(), layout.repeats());
+        out.setOpenAsHyperStack(layout.slices() > 1 && layout.repeats() > 1);
+        Calibration cal = new Calibration();
+        double[] ps = first.pixelSpacing();
+        if (ps != null) {
+            cal.pixelHeight = ps[0];
+            cal.pixelWidth = ps[1];
+            cal.setUnit("mm");
+        }
+        double depth = Double.isFinite(layout.spacing()) ? layout.spacing()
+                : first.spacingBetween() != null ? first.spacingBetween()
+                : first.thickness() != null ? first.thickness() : 1.0;
+        cal.pixelDepth = depth;
+        if (sameStorage) {
+            DicomFile o = owners.get(order[0]);
+            double shift = o.signed() && o.bitsAllocated() == 16 ? 32768 : 0;
+            if (shift != 0 || f0.slope() != 1 || f0.intercept() != 0) {
+                cal.setFunction(Calibration.STRAIGHT_LINE, new double[] {f0.intercept() - shift * f0.slope(),
+                        f0.slope()}, "Gray Value");
+            }
+        } else {
+            out.setProperty(BackgroundValues.PER_SLICE_PROPERTY, storage.toArray(new BackgroundCheck.Storage[0]));
         }
         out.setCalibration(cal);
-        out.setProperty("Info", first.getProperty("Info"));
+        if (info != null) {
+            out.setProperty("Info", info);
+        }
+        String note = "'" + title + "': " + layout.note();
+        if (!sameStorage) {
+            note += "; rescale slope and intercept differ between images, so each image's own rescale was applied "
+                    + "(32-bit values)";
+        }
+        Arrangement.mark(out, note);
         return out;
     }
 
-    /** Opens any ImageJ-readable file with DICOM rescaling fixed and no dialogs; null when it cannot. */
-    static ImagePlus openSilently(Path f) {
+    private static Double smaller(Double a, Double b) {
+        if (a == null || a <= 0) {
+            return b == null || b <= 0 ? null : b;
+        }
+        return b == null || b <= 0 ? a : Math.min(a, b);
+    }
+
+    private static float[] calibrated(Object px, DicomFile.Frame fr, boolean signed) {
+        int n = px instanceof short[] s ? s.length : ((byte[]) px).length;
+        float[] out = new float[n];
+        double shift = signed && px instanceof short[] ? 32768 : 0;
+        for (int i = 0; i < n; i++) {
+            int raw = px instanceof short[] s ? s[i] & 0xffff : ((byte[]) px)[i] & 0xff;
+            out[i] = (float) (fr.intercept() + fr.slope() * (raw - shift));
+        }
+        return out;
+    }
+
+    private static BackgroundCheck.Storage storageOf(DicomFile.Frame fr, DicomFile o) {
+        double lo = o.signed() ? o.bitsAllocated() == 16 ? -32768 : -128 : 0;
+        double hi = o.bitsAllocated() == 16 ? (o.signed() ? 32767 : 65535) : (o.signed() ? 127 : 255);
+        double a = fr.intercept() + fr.slope() * lo;
+        double b = fr.intercept() + fr.slope() * hi;
+        return new BackgroundCheck.Storage(Math.abs(fr.slope()), fr.intercept(), Math.min(a, b), Math.max(a, b));
+    }
+
+    /** ImageJ's text of a DICOM header (the {@code Info} users see in Image > Show Info), or null. */
+    static String headerText(Path f) {
         try {
-            return read(f);
-        } catch (InputException e) {
+            String s = new ij.plugin.DICOM().getInfo(f.toAbsolutePath().toString());
+            return s == null || s.isBlank() ? null : s;
+        } catch (RuntimeException e) {
             return null;
         }
     }
@@ -157,19 +349,4 @@ public final class DicomSeries {
         }
     }
 
-    private static double number(String s) {
-        try {
-            return s == null ? Double.MAX_VALUE : Double.parseDouble(s.trim());
-        } catch (NumberFormatException e) {
-            return Double.MAX_VALUE;
-        }
-    }
-
-    private static double position(String s) {
-        if (s == null) {
-            return 0;
-        }
-        String[] p = s.trim().split("\\\\");
-        return p.length == 3 ? number(p[2]) : 0;
-    }
 }

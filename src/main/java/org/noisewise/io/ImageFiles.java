@@ -3,11 +3,13 @@ package org.noisewise.io;
 import ij.ImagePlus;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.List;
 import org.noisewise.estimate.InputException;
 
 /** Opens image files through ImageJ's readers for the command line (no display needed). */
 public final class ImageFiles {
+
+    /** How a command-line user chooses one echo of a multi-echo series. */
+    public static final String ECHO_HINT = "choose one with --echo N";
 
     private ImageFiles() {
     }
@@ -18,20 +20,19 @@ public final class ImageFiles {
      * ...); a clear error when it cannot.
      */
     public static ImagePlus open(Path file) throws InputException {
+        return open(file, null);
+    }
+
+    /**
+     * Opens an image as {@link #open(Path)} does, keeping echo {@code echo} (1-based) of a DICOM series
+     * that holds several (null: refuse such a series, naming its echoes).
+     */
+    public static ImagePlus open(Path file, Integer echo) throws InputException {
         if (!Files.exists(file)) {
             throw new InputException("file not found: '" + file + "': check the path");
         }
         if (Files.isDirectory(file)) {
-            List<DicomSeries.Series> series = DicomSeries.find(file);
-            if (series.isEmpty()) {
-                throw new InputException("folder '" + file + "' holds no DICOM files: give an image file or a "
-                        + "folder of one DICOM series");
-            }
-            if (series.size() > 1) {
-                throw new InputException("folder '" + file + "' holds " + series.size() + " DICOM series: give a "
-                        + "folder with one series, or use batch");
-            }
-            return DicomSeries.open(series.get(0), file.getFileName().toString());
+            return DicomSeries.openFolder(file, file.getFileName().toString(), echo, ECHO_HINT);
         }
         if (NiftiReader.handles(file)) {
             if (!Files.isReadable(file)) {
@@ -43,6 +44,12 @@ public final class ImageFiles {
             throw new InputException("cannot read '" + file + "': check its permissions");
         }
         FileChecks.requireDecodableDicom(file);
+        if (DicomSeries.isDicom(file)) {
+            ImagePlus dicom = DicomSeries.openFile(file, echo, ECHO_HINT);
+            if (dicom != null) {
+                return dicom;
+            }
+        }
         ImagePlus imp = DicomSeries.read(file.toAbsolutePath());
         if (imp == null || imp.getWidth() == 0) {
             throw new InputException("cannot read '" + file + "' as an image: ImageJ does not recognise "

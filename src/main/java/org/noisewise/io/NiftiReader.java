@@ -128,6 +128,8 @@ public final class NiftiReader {
         if (nz * nt > 1) {
             imp.setOpenAsHyperStack(true);
         }
+        Arrangement.mark(imp, String.format(java.util.Locale.ROOT, "'%s': %d slice%s x %d repeat%s from its NIfTI header "
+                + "(dim[3], dim[4])", file.getFileName(), nz, nz == 1 ? "" : "s", nt, nt == 1 ? "" : "s"));
         Calibration cal = imp.getCalibration();
         double toUnit = 1.0;
         String unit = "mm";

@@ -32,9 +32,19 @@ public final class RepeatedMaps {
                 progress);
     }
 
-    /** The repeats of z slice {@code z}, read as calibrated planes when asked for. */
+    /** The repeats of z slice {@code z}, read as calibrated planes (or values at chosen pixels) when asked for. */
     public static RepeatedAcquisitions.Frames frames(ImagePlus imp, int z) {
         return new RepeatedAcquisitions.Frames() {
+            private SeriesFrames stored;
+
+            @Override
+            public void gather(int frame, int[] indices, double[] out) throws InputException {
+                if (stored == null) {
+                    stored = SeriesFrames.of(imp, z);
+                }
+                stored.gather(frame, indices, out);
+            }
+
             @Override
             public int count() {
                 return StackPlanes.repeatCount(imp);

@@ -12,9 +12,12 @@ public final class StackPlanes {
     private StackPlanes() {
     }
 
-    /** True when repeats lie along a hyperstack's time axis. */
+    /**
+     * True when repeats lie along a time axis: a hyperstack's time frames, or a series whose Z x T
+     * layout was read from its headers (then even a single repeat per slice is known as such).
+     */
     public static boolean hasTimeAxis(ImagePlus imp) {
-        return imp.getNFrames() > 1;
+        return imp.getNFrames() > 1 || Arrangement.known(imp);
     }
 
     /** Number of z positions to treat separately (1 for a plain stack of repeats). */

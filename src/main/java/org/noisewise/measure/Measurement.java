@@ -4,6 +4,7 @@ import ij.ImagePlus;
 import ij.gui.Plot;
 import java.util.ArrayList;
 import java.util.List;
+import org.noisewise.io.Arrangement;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.report.ResultRow;
 
@@ -21,11 +22,21 @@ public record Measurement(List<ResultRow> rows, List<ImagePlus> images, List<Plo
         notes = List.copyOf(notes);
     }
 
-    /** The notes every measurement starts with: a colour lookup table on an input. */
+    /**
+     * The notes every measurement starts with: how each input series was arranged as slices and
+     * repeats, and a colour lookup table on an input.
+     */
     static List<String> imageNotes(ImagePlus... images) {
         List<String> notes = new ArrayList<>();
         for (ImagePlus imp : images) {
-            String n = imp == null ? null : ImagePlanes.lookupTableNote(imp);
+            if (imp == null) {
+                continue;
+            }
+            String a = Arrangement.note(imp);
+            if (a != null && !notes.contains(a)) {
+                notes.add(a);
+            }
+            String n = ImagePlanes.lookupTableNote(imp);
             if (n != null) {
                 notes.add(n);
             }

@@ -95,6 +95,8 @@ class ReviewFindingsTest {
         String[] slopes = {"1", "2.5"};
         for (int i = 0; i < 2; i++) {
             byte[] e = DicomEdit.set(d, 0x0020, 0x0013, "IS", String.valueOf(i + 1));
+            // each image of a series has its own SOP Instance UID, as a scanner writes it
+            e = DicomEdit.set(e, 0x0008, 0x0018, "UI", "1.2.826.0.1.3680043.9.7891." + (i + 1));
             e = DicomEdit.set(e, 0x0028, 0x1053, "DS", slopes[i]);
             e = DicomEdit.set(e, 0x0028, 0x1052, "DS", "-100");
             Files.write(folder.resolve("s" + i + ".dcm"), e);

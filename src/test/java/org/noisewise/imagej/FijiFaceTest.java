@@ -229,7 +229,7 @@ class FijiFaceTest {
         String[][] pages = {{"SNR (Background Regions)", "estimator"}, {"SNR (Two Acquisitions)", "frame_a"},
                 {"SNR Map (Repeated Acquisitions)", "maps"}, {"Background Noise Check", "replace"},
                 {"Rician Bias Correction", "sigma"}, {"Phantom QA", "replace"}, {"Stability (Time Series)", "skip"},
-                {"Compare Protocols", "protocol_a"}, {"g-Factor Map", "acceleration"}};
+                {"Compare Protocols", "protocol_a"}, {"g-Factor Map", "acceleration"}, {"Arrange Series", "echo"}};
         for (String[] p : pages) {
             String html = Face.help(p[0]);
             assertFalse(html.contains("See the section"), "no README section for " + p[0]);
@@ -248,7 +248,8 @@ class FijiFaceTest {
         rgb.show();
         for (String cmd : new String[] {"SNR (Background Regions)...", "SNR (Two Acquisitions)...",
                 "SNR Map (Repeated Acquisitions)...", "Background Noise Check...", "Rician Bias Correction...",
-                "Phantom QA...", "Stability (Time Series)...", "Compare Protocols...", "g-Factor Map..."}) {
+                "Phantom QA...", "Stability (Time Series)...", "Compare Protocols...", "g-Factor Map...",
+                "Arrange Series..."}) {
             IJ.log("\\Clear");
             IJ.redirectErrorMessages();
             try {

@@ -88,7 +88,7 @@ class ReadersTest {
         }
     }
 
-    /** A folder of one series, sorted by instance number, not by file name. */
+    /** A folder of one series at one position: its images are repeats in Instance Number order, not by file name. */
     @Test
     void dicomSeriesFolderIsSortedByInstanceNumber() throws Exception {
         byte[] original = resource("MR_small.dcm");
@@ -97,6 +97,8 @@ class ReadersTest {
         String[] instance = {"3", "1", "2"};
         for (int i = 0; i < 3; i++) {
             byte[] e = DicomEdit.set(original, 0x0020, 0x0013, "IS", instance[i]);
+            // each image of a series has its own SOP Instance UID, as a scanner writes it
+            e = DicomEdit.set(e, 0x0008, 0x0018, "UI", "1.2.826.0.1.3680043.9.7890." + (i + 1));
             // make each slice distinguishable through its rescale intercept
             e = DicomEdit.set(e, 0x0028, 0x1052, "DS", String.valueOf(1000 * Integer.parseInt(instance[i])));
             e = DicomEdit.set(e, 0x0028, 0x1053, "DS", "1");

@@ -37,12 +37,30 @@ class SampleImagesTest {
         }
     }
 
+    /** The bundled DICOM series folder holds exactly the files the generator writes, byte for byte. */
+    @Test
+    void committedDicomSeriesMatchesTheGenerator() throws IOException {
+        Path folder = DIR.resolve(DicomSample.FOLDER);
+        java.util.List<org.noisewise.io.DicomSeriesWriter.File> files = org.noisewise.io.DicomSeriesWriter.singleFrame(
+                org.noisewise.cli.GenerateSamplesCommand.dicomSpec());
+        try (java.util.stream.Stream<Path> s = Files.list(folder)) {
+            assertEquals(files.size(), s.count(), "no other files in " + folder);
+        }
+        assertEquals(DicomSample.SLICES * DicomSample.REPEATS, files.size());
+        for (org.noisewise.io.DicomSeriesWriter.File f : files) {
+            assertArrayEquals(f.bytes(), Files.readAllBytes(folder.resolve(f.name())), f.name());
+        }
+    }
+
     @Test
     void truthFileMatchesTheCatalog() throws IOException {
         JsonObject root = JsonParser.parseString(Files.readString(DIR.resolve("truth.json"))).getAsJsonObject();
         JsonArray samples = root.getAsJsonArray("samples");
-        assertEquals(SampleCatalog.SAMPLES.size() + 1 + ProtocolSamples.ALL.size(), samples.size(),
-                "the image samples, the stability series and the protocol series");
+        assertEquals(SampleCatalog.SAMPLES.size() + 1 + ProtocolSamples.ALL.size() + 1, samples.size(),
+                "the image samples, the stability series, the protocol series and the DICOM series");
+        JsonObject dicom = samples.get(samples.size() - 1).getAsJsonObject();
+        assertEquals(DicomSample.FOLDER + "/", dicom.get("file").getAsString());
+        assertEquals(DicomSample.trueSnr(4), dicom.getAsJsonArray("true_snr_per_slice").get(3).getAsDouble());
         JsonObject st = samples.get(SampleCatalog.SAMPLES.size()).getAsJsonObject();
         for (int i = 0; i < ProtocolSamples.ALL.size(); i++) {
             JsonObject o = samples.get(SampleCatalog.SAMPLES.size() + 1 + i).getAsJsonObject();
@@ -75,6 +93,7 @@ class SampleImagesTest {
         assertTrue(text.contains("channel count matters"));
         assertTrue(text.contains("warning [low_snr]"));
         assertTrue(text.contains("medical physicist"));
+        assertTrue(text.contains("read as 4 slices x 10 repeats from DICOM positions"), "the DICOM series sample");
     }
 
     /**

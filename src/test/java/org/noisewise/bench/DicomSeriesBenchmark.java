@@ -1,0 +1,228 @@
+package org.noisewise.bench;
+
+import ij.ImagePlus;
+import ij.Prefs;
+import ij.plugin.Duplicator;
+import ij.plugin.FolderOpener;
+import ij.plugin.HyperStackConverter;
+import ij.plugin.ImageCalculator;
+import ij.plugin.ZProjector;
+import java.io.IOException;
+import java.lang.management.ManagementFactory;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Comparator;
+import java.util.List;
+import java.util.Locale;
+import java.util.stream.Stream;
+import org.noisewise.io.DicomSeriesWriter;
+import org.noisewise.io.ImageFiles;
+import org.noisewise.sample.Phantoms;
+
+/**
+ * Benchmark (not a test): a weekly functional-QA export, 30 slices x 200 volumes of 64 x 64 16-bit
+ * single-frame MR files (6,000 files, time-major Instance Numbers, Temporal Position Identifier),
+ * read and measured as a user does, each contender a whole process from the files as stored:
+ *
+ * <ul>
+ * <li>{@code noisewise repeat DIR --signal ...} and {@code noisewise stability DIR} (reading,
+ * arrangement, every slice measured);</li>
+ * <li>ImageJ's route: File > Import > Image Sequence of the folder ({@code FolderOpener}), then
+ * Image > Hyperstacks > Stack to Hyperstack (30 slices, 200 frames), and, for the maps, per slice:
+ * Image > Duplicate of its frames, Z Project (average, SD) and Image Calculator (divide);</li>
+ * <li>one plain streaming pass: every file's bytes read once and summed.</li>
+ * </ul>
+ *
+ * Runs interleaved (A B C ... A B C) after one warm-up round, median of the per-round ratios. Then, in
+ * this process, the bytes allocated while Noisewise reads the folder and the heap it keeps, each
+ * against the pixel data. Targets: at least 3x faster than ImageJ's route; memory at most twice the
+ * pixel data. Argument: the application jar. Run: {@code docs/run-benchmarks.sh}.
+ */
+public final class DicomSeriesBenchmark {
+
+    static final int W = 64;
+    static final int Z = 30;
+    static final int T = 200;
+    static final String SIGNAL = "22,22,20,20";
+
+    private DicomSeriesBenchmark() {
+    }
+
+    static void write(Path dir) throws IOException {
+        DicomSeriesWriter.Spec s = new DicomSeriesWriter.Spec("bench", W, W, Z, T).geometry(3, 3, 3.3);
+        for (int z = 0; z < Z; z++) {
+            for (int t = 0; t < T; t++) {
+                float[] v = Phantoms.disk(W, W, W / 2.0, W / 2.0, 22, 800 + 10 * z, 8, 1, 1000L * z + t);
+                short[] p = new short[v.length];
+                for (int i = 0; i < v.length; i++) {
+                    p[i] = (short) Math.round(v[i]);
+                }
+                s.image(z, t, p, 1, 0);
+            }
+        }
+        for (DicomSeriesWriter.File f : DicomSeriesWriter.singleFrame(s)) {
+            Files.write(dir.resolve(f.name()), f.bytes());
+        }
+    }
+
+    /** ImageJ's route as a user takes it (in a process of its own): import, hyperstack, and optionally the maps. */
+    public static final class ImageJRoute {
+        public static void main(String[] args) {
+            Prefs.fixedDicomScaling = true;
+            ImagePlus imp = FolderOpener.open(args[0]);
+            ImagePlus hyper = HyperStackConverter.toHyperStack(imp, 1, Z, T, "xyczt", "grayscale");
+            double sum = 0;
+            if (args.length > 1 && args[1].equals("maps")) {
+                for (int z = 1; z <= Z; z++) {
+                    ImagePlus frames = new Duplicator().run(hyper, 1, 1, z, z, 1, T);
+                    ImagePlus mean = ZProjector.run(frames, "avg");
+                    ImagePlus sd = ZProjector.run(frames, "sd");
+                    ImagePlus snr = ImageCalculator.run(mean, sd, "divide create 32-bit");
+                    sum += snr.getProcessor().getf(W / 2 * W + W / 2);
+                }
+            }
+            System.out.println(hyper.getNSlices() + " " + hyper.getNFrames() + " " + sum);
+        }
+    }
+
+    /** One plain streaming pass over the files (in a process of its own). */
+    public static final class StreamingPass {
+        public static void main(String[] args) throws IOException {
+            long sum = 0;
+            try (Stream<Path> s = Files.list(Path.of(args[0]))) {
+                for (Path p : s.sorted().toList()) {
+                    for (byte b : Files.readAllBytes(p)) {
+                        sum += b;
+                    }
+                }
+            }
+            System.out.println(sum);
+        }
+    }
+
+    static double run(List<String> cmd) throws IOException, InterruptedException {
+        ProcessBuilder pb = new ProcessBuilder(cmd);
+        pb.redirectOutput(ProcessBuilder.Redirect.DISCARD);
+        pb.redirectError(ProcessBuilder.Redirect.DISCARD);
+        long t0 = System.nanoTime();
+        int status = pb.start().waitFor();
+        double s = (System.nanoTime() - t0) / 1e9;
+        if (status != 0) {
+            throw new IllegalStateException("exit " + status + ": " + cmd);
+        }
+        return s;
+    }
+
+    static double median(double[] v) {
+        double[] c = v.clone();
+        Arrays.sort(c);
+        return c[c.length / 2];
+    }
+
+    public static void main(String[] args) throws Exception {
+        if (args.length != 1) {
+            throw new IllegalArgumentException("usage: DicomSeriesBenchmark target/noisewise.jar");
+        }
+        String jar = args[0];
+        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        String cp = jar + System.getProperty("path.separator") + System.getProperty("java.class.path");
+        Path dir = Files.createTempDirectory("noisewise-dicom-bench-");
+        try {
+            write(dir);
+            long bytes = 0;
+            try (Stream<Path> s = Files.list(dir)) {
+                for (Path p : s.toList()) {
+                    bytes += Files.size(p);
+                }
+            }
+            double pixelBytes = 2.0 * W * W * Z * T;
+            System.out.printf(Locale.ROOT, "DICOM folder: %d files of %dx%d (%d slices x %d repeats), %.1f MB on disk, "
+                    + "%.1f MB of pixel data; %d cores%n", Z * T, W, W, Z, T, bytes / 1e6, pixelBytes / 1e6,
+                    Runtime.getRuntime().availableProcessors());
+            List<List<String>> contenders = List.of(
+                    List.of(java, "-jar", jar, "repeat", dir.toString(), "--signal", SIGNAL),
+                    List.of(java, "-jar", jar, "stability", dir.toString()),
+                    List.of(java, "-Djava.awt.headless=true", "-cp", cp, ImageJRoute.class.getName(), dir.toString()),
+                    List.of(java, "-Djava.awt.headless=true", "-cp", cp, ImageJRoute.class.getName(), dir.toString(),
+                            "maps"),
+                    List.of(java, "-cp", cp, StreamingPass.class.getName(), dir.toString()));
+            String[] names = {"noisewise repeat", "noisewise stability", "ImageJ: import + hyperstack",
+                "ImageJ: import + hyperstack + maps per slice", "plain streaming pass"};
+            int rounds = 5;
+            double[][] t = new double[contenders.size()][rounds];
+            for (List<String> c : contenders) {
+                run(c); // warm-up: file cache, class data
+            }
+            for (int r = 0; r < rounds; r++) {
+                for (int c = 0; c < contenders.size(); c++) {
+                    t[c][r] = run(contenders.get(c));
+                }
+            }
+            for (int c = 0; c < contenders.size(); c++) {
+                System.out.printf(Locale.ROOT, "  %-46s median %.2f s (whole process)%n", names[c], median(t[c]));
+            }
+            String[][] pairs = {{"2", "0"}, {"3", "0"}, {"2", "1"}, {"0", "4"}, {"1", "4"}};
+            String[] labels = {"ImageJ import / noisewise repeat", "ImageJ import + maps / noisewise repeat",
+                "ImageJ import / noisewise stability", "noisewise repeat / streaming pass",
+                "noisewise stability / streaming pass"};
+            for (int i = 0; i < pairs.length; i++) {
+                int a = Integer.parseInt(pairs[i][0]);
+                int b = Integer.parseInt(pairs[i][1]);
+                double[] ratio = new double[rounds];
+                for (int r = 0; r < rounds; r++) {
+                    ratio[r] = t[a][r] / t[b][r];
+                }
+                System.out.printf(Locale.ROOT, "  %-46s %.2fx (median of %d interleaved rounds)%n", labels[i],
+                        median(ratio), rounds);
+            }
+            memory(dir, pixelBytes);
+        } finally {
+            try (Stream<Path> s = Files.walk(dir)) {
+                for (Path p : s.sorted(Comparator.reverseOrder()).toList()) {
+                    Files.deleteIfExists(p);
+                }
+            }
+        }
+    }
+
+    /** Bytes allocated by every thread while the folder is read, and the heap kept afterwards, per pixel byte. */
+    static void memory(Path dir, double pixelBytes) throws Exception {
+        com.sun.management.ThreadMXBean threads = (com.sun.management.ThreadMXBean) ManagementFactory.getThreadMXBean();
+        ImageFiles.open(dir); // warm the workers and classes
+        System.gc();
+        long before = allocated(threads);
+        long heapBefore = usedAfterGc();
+        ImagePlus imp = ImageFiles.open(dir);
+        long after = allocated(threads);
+        long heapAfter = usedAfterGc();
+        System.out.printf(Locale.ROOT, "  memory while reading (%d planes): allocated %.2fx the pixel data, kept %.2fx "
+                + "(target at most 2x)%n", imp.getStackSize(), (after - before) / pixelBytes,
+                (heapAfter - heapBefore) / pixelBytes);
+    }
+
+    private static long allocated(com.sun.management.ThreadMXBean threads) {
+        long sum = 0;
+        List<Long> ids = new ArrayList<>();
+        for (long id : threads.getAllThreadIds()) {
+            ids.add(id);
+        }
+        for (long id : ids) {
+            long a = threads.getThreadAllocatedBytes(id);
+            if (a > 0) {
+                sum += a;
+            }
+        }
+        return sum;
+    }
+
+    private static long usedAfterGc() throws InterruptedException {
+        for (int i = 0; i < 3; i++) {
+            System.gc();
+            Thread.sleep(50);
+        }
+        Runtime r = Runtime.getRuntime();
+        return r.totalMemory() - r.freeMemory();
+    }
+}

@@ -1,0 +1,181 @@
+package org.noisewise.imagej;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotNull;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.google.gson.JsonArray;
+import com.google.gson.JsonParser;
+import ij.IJ;
+import ij.ImagePlus;
+import ij.Prefs;
+import ij.WindowManager;
+import ij.gui.Roi;
+import ij.io.Opener;
+import ij.measure.ResultsTable;
+import ij.plugin.FolderOpener;
+import ij.plugin.frame.RoiManager;
+import java.awt.Frame;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Path;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.noisewise.cli.NoisewiseCli;
+import org.noisewise.io.DicomSeriesWriter;
+import org.noisewise.testing.ImageJHarness;
+import org.noisewise.testing.ScannerSeries;
+import org.noisewise.testing.TestImages;
+
+/**
+ * Issue 19 in Fiji: a DICOM folder opened with File > Import > Image Sequence (each file's header in
+ * its slice label) and an enhanced multi-frame file opened by ImageJ are measured per z slice, with
+ * the command line's figures for the same files, the arrangement written to the Log, and the user's
+ * image left exactly as it was (still a plain stack, same pixels).
+ */
+class ScannerSeriesFijiTest {
+
+    private static final int Z = 3;
+    private static final int T = 12;
+    private static final long SEED = 77;
+
+    @TempDir
+    Path dir;
+
+    private RoiManager rm;
+
+    @BeforeAll
+    static void startImageJ() {
+        ImageJHarness.start();
+    }
+
+    @BeforeEach
+    void fresh() {
+        rm = RoiManager.getRoiManager();
+        rm.reset();
+        IJ.log("\\Clear");
+        IJ.redirectErrorMessages();
+        Prefs.fixedDicomScaling = true;
+    }
+
+    @AfterEach
+    void close() {
+        for (Frame f : WindowManager.getNonImageWindows()) {
+            if (f != rm && f != IJ.getInstance()) {
+                f.dispose();
+            }
+        }
+        WindowManager.closeAllWindows();
+    }
+
+    private static JsonArray cli(String... args) {
+        StringWriter out = new StringWriter();
+        int status = NoisewiseCli.execute(args, new PrintWriter(out), new PrintWriter(new StringWriter()));
+        assertEquals(0, status);
+        return JsonParser.parseString(out.toString()).getAsJsonArray();
+    }
+
+    private void measureAsTheCommandLine(ImagePlus imp, Path source) {
+        String before = TestImages.checksum(imp);
+        int planes = imp.getStackSize();
+        imp.show();
+        Roi signal = new Roi(24, 24, 16, 16);
+        signal.setName("signal");
+        rm.addRoi(signal);
+        IJ.run(imp, "SNR Map (Repeated Acquisitions)...", "channels=1 slices=[All slices]");
+        ResultsTable rt = ResultsTable.getResultsTable(RepeatedSnrCommand.tableTitle(imp));
+        assertNotNull(rt, "the table of the run");
+        assertEquals(Z, rt.size(), "one row per z slice");
+        JsonArray cli = cli("repeat", source.toString(), "--signal", ScannerSeries.SIGNAL, "--json");
+        for (int z = 0; z < Z; z++) {
+            assertEquals(T, (int) rt.getValue("Repeats", z));
+            double want = cli.get(z).getAsJsonObject().get("snr").getAsDouble();
+            assertEquals(want, rt.getValue("SNR (corrected)", z), 1e-6 * want, "z " + (z + 1) + " as the command line");
+        }
+        assertTrue(IJ.getLog().contains(Z + " slices x " + T + " repeats"), IJ.getLog());
+        assertEquals(before, TestImages.checksum(imp), "pixels unchanged");
+        assertEquals(planes, imp.getStackSize());
+        assertEquals(1, imp.getNFrames(), "the user's stack is still a plain stack");
+        assertEquals(1, rm.getCount(), "the ROI Manager keeps the user's region");
+    }
+
+    @Test
+    void anImageSequenceImportIsArrangedFromItsSliceLabels() {
+        Path folder = ScannerSeries.folder(ScannerSeries.spec("fiji", Z, T, SEED, false)
+                .numbering(DicomSeriesWriter.Numbering.SLICE_MAJOR), dir, "fiji");
+        ImagePlus imp = FolderOpener.open(folder.toString());
+        assertNotNull(imp);
+        assertEquals(Z * T, imp.getStackSize());
+        measureAsTheCommandLine(imp, folder);
+    }
+
+    @Test
+    void anImageSequenceWithPerImageRescaleUsesEachImagesRescale() {
+        Path folder = ScannerSeries.folder(ScannerSeries.spec("fijiscale", Z, T, SEED, true), dir, "fijiscale");
+        measureAsTheCommandLine(FolderOpener.open(folder.toString()), folder);
+        assertTrue(IJ.getLog().contains("each image's own rescale"), IJ.getLog());
+    }
+
+    @Test
+    void anEnhancedFileOpenedByImageJIsArrangedFromItsFunctionalGroups() {
+        Path f = ScannerSeries.enhanced(ScannerSeries.spec("fijienh", Z, T, SEED, true), dir, "fijienh.dcm");
+        Opener o = new Opener();
+        o.setSilentMode(true);
+        ImagePlus imp = o.openImage(f.toString());
+        assertNotNull(imp);
+        measureAsTheCommandLine(imp, f);
+        assertTrue(IJ.getLog().contains("per-frame functional groups"), IJ.getLog());
+    }
+
+    @Test
+    void aMultiEchoImportIsRefusedInFijisWords() throws Exception {
+        Path folder = dir.resolve("echoes");
+        java.nio.file.Files.createDirectories(folder);
+        for (int echo = 1; echo <= 2; echo++) {
+            for (DicomSeriesWriter.File file : DicomSeriesWriter.singleFrame(ScannerSeries.spec("fijiecho", Z, T,
+                    SEED + echo, false).echo(echo, 9.0 * echo))) {
+                java.nio.file.Files.write(folder.resolve(file.name()), file.bytes());
+            }
+        }
+        ImagePlus imp = FolderOpener.open(folder.toString());
+        imp.show();
+        Roi signal = new Roi(24, 24, 16, 16);
+        signal.setName("signal");
+        rm.addRoi(signal);
+        IJ.redirectErrorMessages();
+        try {
+            IJ.run(imp, "SNR Map (Repeated Acquisitions)...", "channels=1 slices=[All slices]");
+        } catch (RuntimeException expectedMacroCancel) {
+            // ImageJ cancels the macro after reporting the error
+        }
+        String log = IJ.getLog();
+        assertTrue(log.contains("2 echoes") && log.contains("Arrange Series"), log);
+        assertTrue(!log.contains("--"), "no command-line flags in Fiji: " + log);
+        // Arrange Series with the echo chosen: a new hyperstack of that echo; the import is unchanged
+        String before = TestImages.checksum(imp);
+        int count = WindowManager.getImageCount();
+        IJ.run(imp, "Arrange Series...", "echo=2");
+        assertEquals(count + 1, WindowManager.getImageCount());
+        ImagePlus arranged = WindowManager.getImage(imp.getTitle() + " (arranged)");
+        assertNotNull(arranged, "the new image");
+        assertEquals(Z, arranged.getNSlices());
+        assertEquals(T, arranged.getNFrames());
+        short[] want = ScannerSeries.stored(1, 4, SEED + 2, 1);
+        assertEquals(ScannerSeries.SLOPE * (want[40] & 0xffff), org.noisewise.io.ImagePlanes.calibratedPixels(arranged,
+                arranged.getStackIndex(1, 2, 5))[40], 1e-4);
+        assertEquals(before, TestImages.checksum(imp));
+        assertEquals(2 * Z * T, imp.getStackSize());
+        // and the arranged echo measures as the command line measures that echo
+        IJ.run(arranged, "SNR Map (Repeated Acquisitions)...", "channels=1 slices=[All slices]");
+        ResultsTable rt = ResultsTable.getResultsTable(RepeatedSnrCommand.tableTitle(arranged));
+        assertNotNull(rt);
+        JsonArray cli = cli("repeat", folder.toString(), "--echo", "2", "--signal", ScannerSeries.SIGNAL, "--json");
+        for (int z = 0; z < Z; z++) {
+            double w = cli.get(z).getAsJsonObject().get("snr").getAsDouble();
+            assertEquals(w, rt.getValue("SNR (corrected)", z), 1e-6 * w);
+        }
+    }
+}

@@ -1,0 +1,315 @@
+package org.noisewise.io;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotNull;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import ij.ImagePlus;
+import ij.Prefs;
+import ij.io.Opener;
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.zip.GZIPInputStream;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.noisewise.estimate.InputException;
+import org.noisewise.testing.ScannerSeries;
+
+/**
+ * Issue 19: a DICOM series is read as the Z slices x T repeats the scanner acquired, from its
+ * headers, whatever the numbering, the temporal tags, the direction of the positions or the file
+ * layout (single-frame files or one enhanced multi-frame file); incomplete, duplicated, multi-echo,
+ * multi-orientation series are refused with a message naming what is wrong.
+ */
+class DicomSeriesTest {
+
+    private static final int Z = 4;
+    private static final int T = 6;
+    private static final long SEED = 19;
+
+    @TempDir
+    Path dir;
+
+    /** The calibrated values the reader must give at slice z (0-based, ascending), repeat t. */
+    private static float[] expected(int z, int t) {
+        short[] s = ScannerSeries.stored(z, t, SEED, 1);
+        float[] v = new float[s.length];
+        for (int i = 0; i < s.length; i++) {
+            v[i] = (float) (ScannerSeries.SLOPE * (s[i] & 0xffff));
+        }
+        return v;
+    }
+
+    private static void assertArranged(ImagePlus imp, boolean reversed) throws InputException {
+        assertEquals(Z, imp.getNSlices(), "z slices");
+        assertEquals(T, imp.getNFrames(), "repeats");
+        assertEquals(Z, StackPlanes.zCount(imp));
+        assertEquals(T, StackPlanes.repeatCount(imp));
+        for (int z = 1; z <= Z; z++) {
+            for (int t = 1; t <= T; t++) {
+                int written = reversed ? Z - z : z - 1;
+                assertArrayEquals(expected(written, t - 1), ImagePlanes.calibratedPixels(imp,
+                        StackPlanes.index(imp, z, t)), 1e-4f, "z " + z + " t " + t);
+            }
+        }
+    }
+
+    private Path folder(DicomSeriesWriter.Spec spec, String name) {
+        return ScannerSeries.folder(spec, dir, name);
+    }
+
+    @Test
+    void bothNumberingConventionsWithAndWithoutTemporalTags() throws Exception {
+        for (DicomSeriesWriter.Numbering n : DicomSeriesWriter.Numbering.values()) {
+            for (DicomSeriesWriter.TimeTags tags : DicomSeriesWriter.TimeTags.values()) {
+                String name = n + "_" + tags;
+                Path f = folder(ScannerSeries.spec(name, Z, T, SEED, false).numbering(n).timeTags(tags), name);
+                ImagePlus imp = ImageFiles.open(f);
+                assertArranged(imp, false);
+                String note = Arrangement.note(imp);
+                assertTrue(note.contains(Z + " slices x " + T + " repeats from DICOM positions"), note);
+                String key = switch (tags) {
+                    case TEMPORAL_POSITION -> "Temporal Position Identifier (0020,0100)";
+                    case ACQUISITION_NUMBER -> "Acquisition Number (0020,0012)";
+                    case NONE -> "the order of Instance Number";
+                };
+                assertTrue(note.contains(key), note);
+                assertEquals(2.0, imp.getCalibration().pixelWidth, 1e-12);
+                assertEquals(6.0, imp.getCalibration().pixelDepth, 1e-9, "slice spacing from the positions");
+            }
+        }
+    }
+
+    /** Positions written in descending order along the normal: slice 1 is still the lowest position. */
+    @Test
+    void descendingPositionsAreOrderedAlongTheNormal() throws Exception {
+        Path f = folder(ScannerSeries.spec("desc", Z, T, SEED, false).geometry(2, 5, -6).origin(-64, -64, 40), "desc");
+        assertArranged(ImageFiles.open(f), true);
+        // an oblique orientation: the normal is row x column, not the z axis
+        double c = Math.cos(0.3);
+        double s = Math.sin(0.3);
+        Path o = folder(ScannerSeries.spec("oblique", Z, T, SEED, false).orientation(1, 0, 0, 0, c, s)
+                .numbering(DicomSeriesWriter.Numbering.SLICE_MAJOR), "oblique");
+        assertArranged(ImageFiles.open(o), false);
+    }
+
+    @Test
+    void enhancedMultiFrameFileWithPerFrameRescale() throws Exception {
+        for (boolean undefined : new boolean[] {false, true}) {
+            for (String syntax : new String[] {DicomWriter.EXPLICIT_LE, DicomWriter.IMPLICIT_LE}) {
+                DicomSeriesWriter.Spec spec = ScannerSeries.spec("enh" + undefined + syntax, Z, T, SEED, true)
+                        .transferSyntax(syntax, undefined).numbering(DicomSeriesWriter.Numbering.SLICE_MAJOR);
+                Path f = ScannerSeries.enhanced(spec, dir, "enh" + undefined + syntax.length() + ".dcm");
+                ImagePlus imp = ImageFiles.open(f);
+                assertEquals(32, imp.getBitDepth(), "per-frame rescale differs: calibrated 32-bit planes");
+                for (int z = 1; z <= Z; z++) {
+                    for (int t = 1; t <= T; t++) {
+                        float[] got = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, t));
+                        float[] want = expected(z - 1, t - 1);
+                        for (int i = 0; i < want.length; i++) {
+                            // stored at a coarser step for some repeats: equal within half that step
+                            assertEquals(want[i], got[i], 0.5 * ScannerSeries.SLOPE * 2 + 1e-4, "z " + z + " t " + t);
+                        }
+                    }
+                }
+                String note = Arrangement.note(imp);
+                assertTrue(note.contains("Temporal Position Index (0020,9128)"), note);
+                assertTrue(note.contains("each image's own rescale"), note);
+            }
+        }
+    }
+
+    /**
+     * ImageJ's own reader applies one rescale to every frame of an enhanced file; the reader here
+     * applies each frame's Pixel Value Transformation.
+     */
+    @Test
+    void perFrameRescaleIsWhatImageJAloneMisses() throws Exception {
+        Path f = ScannerSeries.enhanced(ScannerSeries.spec("ij", 2, 3, SEED, true), dir, "ij.dcm");
+        Prefs.fixedDicomScaling = true;
+        Opener o = new Opener();
+        o.setSilentMode(true);
+        ImagePlus ij = o.openImage(f.toString());
+        ImagePlus ours = ImageFiles.open(f);
+        // frame 1 (z 1, t 1) has slope 0.1; ImageJ applies the last frame's slope to it
+        float[] want = expected(0, 0);
+        float[] imagej = ImagePlanes.calibratedPixels(ij, 1);
+        float[] mine = ImagePlanes.calibratedPixels(ours, StackPlanes.index(ours, 1, 1));
+        assertEquals(want[32 * 64 + 32], mine[32 * 64 + 32], 1e-4);
+        assertTrue(Math.abs(imagej[32 * 64 + 32] - want[32 * 64 + 32]) > 10, "ImageJ alone reads a wrong value");
+    }
+
+    @Test
+    void aMissingImageIsRefusedNamingItsSliceAndRepeat() throws Exception {
+        Path tagged = folder(ScannerSeries.spec("miss", Z, T, SEED, false).drop(0, 4), "miss");
+        InputException e = assertThrows(InputException.class, () -> ImageFiles.open(tagged));
+        assertTrue(e.getMessage().contains("incomplete") && e.getMessage().contains("slice 1 of 4")
+                && e.getMessage().contains("repeat 5 of 6"), e.getMessage());
+        for (DicomSeriesWriter.Numbering n : DicomSeriesWriter.Numbering.values()) {
+            Path untagged = folder(ScannerSeries.spec("miss" + n, Z, T, SEED, false).drop(0, 4)
+                    .timeTags(DicomSeriesWriter.TimeTags.NONE).numbering(n), "miss" + n);
+            InputException u = assertThrows(InputException.class, () -> ImageFiles.open(untagged));
+            assertTrue(u.getMessage().contains("slice 1 of 4") && u.getMessage().contains("5 images where other "
+                    + "slices have 6") && u.getMessage().contains("repeat 5 is missing"), u.getMessage());
+        }
+        Path enh = ScannerSeries.enhanced(ScannerSeries.spec("missenh", Z, T, SEED, false).drop(2, 0), dir, "m.dcm");
+        InputException m = assertThrows(InputException.class, () -> ImageFiles.open(enh));
+        assertTrue(m.getMessage().contains("slice 3 of 4") && m.getMessage().contains("repeat 1 of 6"),
+                m.getMessage());
+    }
+
+    @Test
+    void duplicatesAreRefused() throws Exception {
+        Path f = folder(ScannerSeries.spec("dup", Z, T, SEED, false), "dup");
+        // a copy of a file under another name: the same SOP Instance UID
+        Files.copy(f.resolve("IM0001.dcm"), f.resolve("copy of IM0001.dcm"));
+        InputException copy = assertThrows(InputException.class, () -> ImageFiles.open(f));
+        assertTrue(copy.getMessage().contains("same image"), copy.getMessage());
+        // two different images of the same slice and repeat
+        DicomSeriesWriter.Spec spec = ScannerSeries.spec("dup2", Z, T, SEED, false);
+        spec.image(1, 2, ScannerSeries.stored(1, 2, SEED + 1, 1), ScannerSeries.SLOPE, 0);
+        Path g = Files.createDirectories(dir.resolve("dup2"));
+        int k = 0;
+        for (DicomSeriesWriter.File file : DicomSeriesWriter.singleFrame(spec)) {
+            Files.write(g.resolve("f" + (k++) + "_" + file.name()), file.bytes());
+        }
+        InputException two = assertThrows(InputException.class, () -> ImageFiles.open(g));
+        assertTrue(two.getMessage().contains("two images of slice 2 of 4") && two.getMessage().contains("repeat 3"),
+                two.getMessage());
+    }
+
+    @Test
+    void echoesAreNeverMixed() throws Exception {
+        Path f = Files.createDirectories(dir.resolve("echoes"));
+        for (int echo = 1; echo <= 2; echo++) {
+            DicomSeriesWriter.Spec spec = new DicomSeriesWriter.Spec("echoes", ScannerSeries.SIZE, ScannerSeries.SIZE,
+                    Z, T).echo(echo, 10.0 * echo);
+            for (int z = 0; z < Z; z++) {
+                for (int t = 0; t < T; t++) {
+                    spec.image(z, t, ScannerSeries.stored(z, t, SEED + echo, 1), ScannerSeries.SLOPE, 0);
+                }
+            }
+            for (DicomSeriesWriter.File file : DicomSeriesWriter.singleFrame(spec)) {
+                Files.write(f.resolve(file.name()), file.bytes());
+            }
+        }
+        InputException e = assertThrows(InputException.class, () -> ImageFiles.open(f));
+        assertTrue(e.getMessage().contains("2 echoes") && e.getMessage().contains("Echo Numbers (0018,0086) 1 (24 images), "
+                + "2 (24 images)") && e.getMessage().contains("--echo"), e.getMessage());
+        ImagePlus second = ImageFiles.open(f, 2);
+        assertEquals(Z, second.getNSlices());
+        assertEquals(T, second.getNFrames());
+        short[] want = ScannerSeries.stored(2, 3, SEED + 2, 1);
+        assertEquals(ScannerSeries.SLOPE * (want[100] & 0xffff),
+                ImagePlanes.calibratedPixels(second, StackPlanes.index(second, 3, 4))[100], 1e-4);
+        assertTrue(Arrangement.note(second).contains("echo 2"), Arrangement.note(second));
+        assertTrue(assertThrows(InputException.class, () -> ImageFiles.open(f, 3)).getMessage()
+                .contains("numbered 1 to 2"));
+    }
+
+    @Test
+    void orientationsAndSeriesAreNeverMixed() throws Exception {
+        Path f = folder(ScannerSeries.spec("axial", 2, 2, SEED, false), "mixed");
+        DicomSeriesWriter.Spec cor = ScannerSeries.spec("coronal", 2, 2, SEED + 1, false).series("axial")
+                .orientation(1, 0, 0, 0, 0, -1);
+        for (DicomSeriesWriter.File file : DicomSeriesWriter.singleFrame(cor)) {
+            Files.write(f.resolve("cor_" + file.name()), file.bytes());
+        }
+        InputException e = assertThrows(InputException.class, () -> ImageFiles.open(f));
+        assertTrue(e.getMessage().contains("more than one orientation"), e.getMessage());
+        Path two = folder(ScannerSeries.spec("one", 2, 2, SEED, false), "two");
+        for (DicomSeriesWriter.File file : DicomSeriesWriter.singleFrame(ScannerSeries.spec("other", 2, 2, SEED, false))) {
+            Files.write(two.resolve("other_" + file.name()), file.bytes());
+        }
+        InputException s = assertThrows(InputException.class, () -> ImageFiles.open(two));
+        assertTrue(s.getMessage().contains("2 DICOM series"), s.getMessage());
+    }
+
+    /** A plain TIFF stack without dimensions keeps today's rule: its slices are repeats of one slice. */
+    @Test
+    void aPlainTiffStackKeepsTheOldRule() throws Exception {
+        ij.ImageStack st = new ij.ImageStack(8, 8);
+        for (int i = 0; i < 5; i++) {
+            st.addSlice(new ij.process.FloatProcessor(8, 8));
+        }
+        Path p = org.noisewise.testing.TestImages.saveTiff(new ImagePlus("plain", st), dir, "plain.tif");
+        ImagePlus imp = ImageFiles.open(p);
+        assertEquals(1, StackPlanes.zCount(imp));
+        assertEquals(5, StackPlanes.repeatCount(imp));
+        assertEquals(null, Arrangement.note(imp));
+    }
+
+    // ---- real files from Debian's packages (src/test/resources/opendata/README.md) -----------------------------
+
+    private Path resource(String name, Path to) throws IOException {
+        try (InputStream in = getClass().getResourceAsStream("/opendata/" + name)) {
+            assertNotNull(in, name);
+            InputStream src = name.endsWith(".gz") ? new GZIPInputStream(in) : in;
+            Files.write(to, src.readAllBytes());
+        }
+        return to;
+    }
+
+    /**
+     * nibabel's two Siemens single-frame files (implicit VR, one series, Image Positions 3 mm apart
+     * along the slice normal): two z slices of one repeat, spaced 3 mm, values as ImageJ reads them.
+     */
+    @Test
+    void realSiemensPairIsTwoSlices() throws Exception {
+        Path f = Files.createDirectories(dir.resolve("siemens"));
+        resource("siemens_0.dcm", f.resolve("0.dcm"));
+        resource("siemens_1.dcm", f.resolve("1.dcm"));
+        ImagePlus imp = ImageFiles.open(f);
+        assertEquals(2, imp.getNSlices());
+        assertEquals(1, imp.getNFrames());
+        assertEquals(3.0, imp.getCalibration().pixelDepth, 1e-3);
+        Prefs.fixedDicomScaling = true;
+        ImagePlus ij0 = new Opener().openImage(f.resolve("0.dcm").toString());
+        ImagePlus ij1 = new Opener().openImage(f.resolve("1.dcm").toString());
+        // 0.dcm lies at -75.1 mm along the normal, 1.dcm at -72.1 mm: ascending order
+        assertArrayEquals(ImagePlanes.calibratedPixels(ij0, 1), ImagePlanes.calibratedPixels(imp, 1), 0f);
+        assertArrayEquals(ImagePlanes.calibratedPixels(ij1, 1), ImagePlanes.calibratedPixels(imp, 2), 0f);
+        // two slices of one acquisition are not repeats
+        InputException single = assertThrows(InputException.class, () -> org.noisewise.measure.RepeatedMeasure.run(imp,
+                "siemens", new org.noisewise.measure.Roles(java.util.List.of(), java.util.List.of()), 1, new int[] {1},
+                true, org.noisewise.measure.Progress.NONE));
+        assertTrue(single.getMessage().contains("repeated-acquisition method needs"), single.getMessage());
+    }
+
+    /**
+     * nibabel's Philips Enhanced MR file (3-D MPRAGE, 176 frames of 256 x 256, per-frame functional
+     * groups with Plane Position, Temporal Position Index 1 and Pixel Value Transformation slope
+     * 2.1079365079365): 176 slices of one repeat, 1 mm apart, with the per-frame slope as calibration.
+     */
+    @Test
+    void realPhilipsEnhancedFile() throws Exception {
+        Path f = resource("philips_mprage.dcm.gz", dir.resolve("mprage.dcm"));
+        ImagePlus imp = ImageFiles.open(f);
+        assertEquals(176, imp.getNSlices());
+        assertEquals(1, imp.getNFrames());
+        assertEquals(256, imp.getWidth());
+        assertEquals(1.0, imp.getCalibration().pixelDepth, 1e-4);
+        double[] c = imp.getCalibration().getCoefficients();
+        assertNotNull(c);
+        assertEquals(2.1079365079365, c[1], 1e-12);
+        assertTrue(Arrangement.note(imp).contains("176 slices x 1 repeat"), Arrangement.note(imp));
+    }
+
+    /** pydicom's MR_small in explicit, implicit and big-endian transfer syntaxes reads as ImageJ reads it. */
+    @Test
+    void transferSyntaxesAgreeWithImageJ() throws Exception {
+        for (String name : new String[] {"MR_small.dcm", "MR_small_implicit.dcm", "MR_small_bigendian.dcm",
+            "MR_small_expb.dcm"}) {
+            Path f = resource(name, dir.resolve(name));
+            Prefs.fixedDicomScaling = true;
+            ImagePlus ij = new Opener().openImage(f.toString());
+            ImagePlus ours = ImageFiles.open(f);
+            assertArrayEquals(ImagePlanes.calibratedPixels(ij, 1), ImagePlanes.calibratedPixels(ours, 1), 0f, name);
+            assertEquals(ij.getCalibration().pixelWidth, ours.getCalibration().pixelWidth, 1e-12, name);
+        }
+    }
+}

@@ -9,3 +9,4 @@ java -Xmx3g -cp "$CP" org.noisewise.bench.RicianCorrectionBenchmark
 java -Xmx3g -cp "$CP" org.noisewise.bench.StabilityBenchmark
 mvn -B -q package -DskipTests
 java -Xmx3g -cp "$CP" org.noisewise.bench.LargeImageBenchmark target/noisewise.jar
+java -Xmx3g -cp "$CP" org.noisewise.bench.DicomSeriesBenchmark target/noisewise.jar

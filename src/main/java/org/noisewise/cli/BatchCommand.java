@@ -110,6 +110,12 @@ public class BatchCommand implements Callable<Integer> {
             throw new InputException("--skip and --roi-size belong to --method stability: leave them out for "
                     + method);
         }
+        if (skip != null && skip < 0) {
+            throw new InputException("--skip must be 0 or more frames, was " + skip);
+        }
+        if (roiSize != null && roiSize < 1) {
+            throw new InputException("--roi-size must be at least 1 pixel, was " + roiSize);
+        }
         SigmaEstimator est = BackgroundCommand.parseEstimator(estimator);
         PhaseDirection dir = phase == null ? null : BackgroundCommand.parsePhase(phase);
         if (csv != null) {
@@ -118,12 +124,19 @@ public class BatchCommand implements Callable<Integer> {
         if (csv != null) {
             ImageWriter.checkFolderWritable(csv);
         }
-        List<Item> items = items(folder, csv);
-        if (items.isEmpty()) {
-            throw new InputException("folder '" + folder + "' and its sub-folders hold no files to measure: give the "
-                    + "folder of the images");
-        }
+        List<Path> leftOut = new ArrayList<>();
+        List<Item> items = items(folder, csv, leftOut);
         PrintWriter err = spec.commandLine().getErr();
+        if (!leftOut.isEmpty()) {
+            err.println("batch: note: " + leftOut.size() + " file(s) that are not images were left out: "
+                    + String.join(", ", leftOut.stream().limit(5).map(p -> folder.relativize(p).toString()).toList())
+                    + (leftOut.size() > 5 ? ", ..." : ""));
+        }
+        if (items.isEmpty()) {
+            throw new InputException("folder '" + folder + "' and its sub-folders hold no images to measure"
+                    + (leftOut.isEmpty() ? "" : " (only " + leftOut.size() + " other file(s))") + ": give the folder of "
+                    + "the images");
+        }
         long start = System.nanoTime();
         List<ResultRow> rows = new ArrayList<>();
         List<String> headings = null;
@@ -158,7 +171,7 @@ public class BatchCommand implements Callable<Integer> {
                 measured++;
             } catch (InputException e) {
                 failed.add(item);
-                failures.add(e.getMessage());
+                failures.add(NoisewiseCli.text(e));
                 rows.add(null);
             } catch (RuntimeException e) {
                 failed.add(item);
@@ -224,8 +237,12 @@ public class BatchCommand implements Callable<Integer> {
         return out;
     }
 
-    /** Image files and DICOM series below {@code root}, in sorted order; the output file itself is left out. */
-    static List<Item> items(Path root, Path exclude) throws InputException {
+    /**
+     * Image files and DICOM series below {@code root}, in sorted order; the output file itself is left
+     * out, and so are files that are plainly not images (text, tables, documents: {@link ImageFiles#notAnImage}),
+     * which go to {@code leftOut} for the note.
+     */
+    static List<Item> items(Path root, Path exclude, List<Path> leftOut) throws InputException {
         List<Path> dirs;
         try (Stream<Path> s = Files.walk(root)) {
             dirs = s.filter(Files::isDirectory).sorted().toList();
@@ -248,6 +265,8 @@ public class BatchCommand implements Callable<Integer> {
                 }
                 if (DicomSeries.isDicom(f)) {
                     dicom.add(f);
+                } else if (ImageFiles.notAnImage(f)) {
+                    leftOut.add(f);
                 } else {
                     items.add(new Item(root.relativize(f).toString(), f, null));
                 }

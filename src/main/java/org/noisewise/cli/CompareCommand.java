@@ -21,7 +21,7 @@ import picocli.CommandLine.Spec;
 @Command(name = "compare", mixinStandardHelpOptions = true, sortOptions = false,
         description = {"Measures the corrected SNR of two acquisitions with one method (repeated acquisitions when each "
                 + "is a series, the difference method when each is a pair, else background regions) and reports the "
-                + "measured ratio B/A with its 95% interval beside the ratio the protocols predict.",
+                + "measured ratio B/A with its 95%% interval beside the ratio the protocols predict.",
                 "Protocols come from the DICOM headers; --from/--to give or override them (KEY=VALUE pairs, see "
                         + "predict)."})
 public class CompareCommand implements Callable<Integer> {

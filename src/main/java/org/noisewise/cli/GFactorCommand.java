@@ -21,7 +21,7 @@ import picocli.CommandLine.Spec;
 @Command(name = "gfactor", mixinStandardHelpOptions = true, sortOptions = false,
         description = {"Parallel-imaging g-factor, g = SNR_full / (SNR_accelerated sqrt(R)): a pixel map from the "
                 + "temporal mean and SD of repeated acquisitions, and each signal region's value from the corrected, "
-                + "pooled SNRs with a 95% interval.",
+                + "pooled SNRs with a 95%% interval.",
                 "FULL and ACCEL are each a series of repeats of the same slices (as repeat takes them) or a pair."})
 public class GFactorCommand implements Callable<Integer> {
 

@@ -63,8 +63,8 @@ public class NoisewiseCli implements Runnable {
             if (ex.getCause() instanceof OutOfMemoryError) {
                 return outOfMemory(err);
             }
-            if (ex instanceof InputException) {
-                err.println("noisewise: error: " + ex.getMessage());
+            if (ex instanceof InputException ie) {
+                err.println("noisewise: error: " + text(ie));
                 err.flush();
                 return EXIT_INPUT;
             }
@@ -83,6 +83,12 @@ public class NoisewiseCli implements Runnable {
         } catch (OutOfMemoryError e) {
             return outOfMemory(err);
         }
+    }
+
+    /** An input error's message with its remedy in the command line's words. */
+    static String text(InputException e) {
+        return e.remedy() == InputException.Remedy.REPLACE ? e.getMessage() + " or add --force to replace it"
+                : e.getMessage();
     }
 
     /** One line for a full heap (what to do: more heap, or less data at once); exit status 3. */

@@ -18,20 +18,28 @@ final class ProtocolArgument {
      * @param option the option's name, for messages
      */
     static Protocol resolve(String text, String option) throws InputException {
-        if (text.contains("=")) {
+        if (text == null || text.isBlank()) {
             return Protocol.parse(text, option);
         }
-        Path p = Path.of(text);
-        if (!Files.exists(p)) {
-            throw new InputException(option + " " + text + ": neither KEY=VALUE pairs (e.g. voxel=1x1x5,phase=256,"
-                    + "averages=1,bandwidth=130,field=3) nor an existing DICOM file or folder");
+        // FILE, or FILE,KEY=VALUE,...: the header's protocol completed or overridden by the pairs
+        String[] parts = text.split(",", 2);
+        String first = parts[0].trim();
+        if (!first.contains("=") && !first.isEmpty()) {
+            Path p = Path.of(first);
+            if (!Files.exists(p)) {
+                throw new InputException(option + " " + text + ": neither KEY=VALUE pairs (e.g. voxel=1x1x5,phase=256,"
+                        + "averages=1,bandwidth=130,field=3) nor an existing DICOM file or folder ('" + first
+                        + "' does not exist)");
+            }
+            ImagePlus imp = ImageFiles.open(p);
+            Protocol h = ProtocolHeaders.of(imp);
+            Protocol extra = parts.length > 1 ? Protocol.parse(parts[1], option) : null;
+            if (h.text().isEmpty() && extra == null) {
+                throw new InputException(option + " " + text + ": the file states no acquisition parameters (no DICOM "
+                        + "header): give them as KEY=VALUE pairs, or complete the file's with FILE,KEY=VALUE,...");
+            }
+            return extra == null ? h : h.overriddenBy(extra);
         }
-        ImagePlus imp = ImageFiles.open(p);
-        Protocol h = ProtocolHeaders.of(imp);
-        if (h.text().isEmpty()) {
-            throw new InputException(option + " " + text + ": the file states no acquisition parameters (no DICOM "
-                    + "header): give them as KEY=VALUE pairs instead");
-        }
-        return h;
+        return Protocol.parse(text, option);
     }
 }

@@ -2,7 +2,6 @@ package org.noisewise.cli;
 
 import ij.ImagePlus;
 import ij.gui.Plot;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -86,11 +85,11 @@ public class StabilityCommand implements Callable<Integer> {
     @Override
     public Integer call() throws InputException {
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "stability");
-        if (plots != null && !Files.isDirectory(plots)) {
-            throw new InputException("the folder for plots '" + plots + "' does not exist: create it first");
+        if (logKeys.baseline < 2) {
+            throw new InputException("--baseline must be at least 2 sessions, was " + logKeys.baseline);
         }
-        if (logKeys.baseline < 1) {
-            throw new InputException("--baseline needs at least 1 session, was " + logKeys.baseline);
+        if (plots != null) {
+            ImageWriter.outputFolder(plots, "plots");
         }
         progress.report(0.0, "reading " + image.getFileName());
         ImagePlus imp = ImageFiles.open(image, echoOption.get());

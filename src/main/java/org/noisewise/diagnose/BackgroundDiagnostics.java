@@ -90,7 +90,10 @@ public final class BackgroundDiagnostics {
     public static Diagnosis diagnose(float[] pixels, int width, int height, Region signal, List<Region> background,
                                      BackgroundNoise noise, Options options) throws InputException {
         double ratio = 1.0 / noise.inflation(SigmaEstimator.ML);
-        ChannelCount.Estimate est = ChannelCount.estimate(noise.values(), ratio);
+        BackgroundCheck.Storage storage = options.storage();
+        ChannelCount.Estimate est = storage != null && storage.integer()
+                ? ChannelCount.estimate(noise.values(), ratio, storage.step(), storage.offset())
+                : ChannelCount.estimate(noise.values(), ratio);
         List<Warning> reasons = new ArrayList<>();
         Verdict verdict = Verdict.VALID;
         boolean auto = options.channels() == null;

@@ -12,6 +12,7 @@ import org.noisewise.estimate.Region;
 import org.noisewise.estimate.SampleStats;
 import org.noisewise.estimate.SigmaEstimate;
 import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.estimate.SignedValues;
 import org.noisewise.estimate.SpatialCorrelation;
 import org.noisewise.estimate.Warning;
 
@@ -127,6 +128,8 @@ public final class BackgroundSnr {
         }
         Signal sig = Signal.of(pixels, width, signal);
         BackgroundNoise noise = BackgroundNoise.measure(pixels, width, background);
+        SignedValues.requireMagnitude(signal.values(pixels), "signal region '" + signal.name() + "'",
+                "the background method");
         List<Warning> warnings = new ArrayList<>();
         checkOverlap(signal, background, pixels.length, warnings);
         BackgroundDiagnostics.Diagnosis diag = BackgroundDiagnostics.diagnose(pixels, width, height, signal, background,

@@ -118,6 +118,29 @@ public record CorrectedSnr(double amplitude, Interval amplitudeCi95, double sigm
         return new CorrectedSnr(amplitude, aCi, sigma, sigmaCi, theta, thetaCi, r, rCi, channels, w);
     }
 
+    /**
+     * The Gaussian model for signed (not magnitude) data: the amplitude is the mean, sigma the SD and
+     * the SNR their ratio, uncorrected; normal intervals (the SNR's by the delta method, so a negative
+     * mean gives a negative SNR with an ordered interval).
+     */
+    public static CorrectedSnr gaussian(double mean, double seMean, double sd, double seLogSd) {
+        if (!(sd > 0)) {
+            throw new IllegalArgumentException("the SD must be positive, was " + sd);
+        }
+        double snr = mean / sd;
+        Interval aCi = Double.isFinite(seMean) ? new Interval(mean - Z975 * seMean, mean + Z975 * seMean) : NONE;
+        Interval sCi = Double.isFinite(seLogSd) ? new Interval(sd * Math.exp(-Z975 * seLogSd), sd * Math.exp(Z975
+                * seLogSd)) : NONE;
+        double se = Math.sqrt(Math.pow(seMean / sd, 2) + Math.pow(snr * seLogSd, 2));
+        Interval rCi = Double.isFinite(se) ? new Interval(snr - Z975 * se, snr + Z975 * se) : NONE;
+        List<Warning> w = new ArrayList<>();
+        if (!Double.isFinite(seMean)) {
+            w.add(new Warning("no_interval", "no 95% interval: the signal region is too small to estimate the spread of "
+                    + "its mean (a single pixel); draw a region of at least 100 pixels"));
+        }
+        return new CorrectedSnr(mean, aCi, sd, sCi, snr, rCi, snr, rCi, 0, w);
+    }
+
     /** Koay-Basser amplitude of a mean and SD (0 below the pure-noise ratio). */
     private static double amplitude(double mean, double sd, int channels) {
         if (!(mean > 0)) {

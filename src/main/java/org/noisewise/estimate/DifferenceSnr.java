@@ -73,12 +73,19 @@ public final class DifferenceSnr {
         // the difference of two magnitudes is close to Gaussian: Var(s^2) = 2 s^4 V2 / n
         double seLogS = Math.sqrt(0.5 / nVar);
         double seAverage = s * Math.sqrt(1.0 / (2.0 * nMean));
-        CorrectedSnr figures = CorrectedSnr.meanAndSd(savg.mean(), seAverage, s, seLogS, channels);
+        int negatives = SignedValues.negatives(a) + SignedValues.negatives(b);
+        boolean signed = SignedValues.signed(negatives, 2L * n);
+        CorrectedSnr figures = signed ? CorrectedSnr.gaussian(savg.mean(), seAverage, s, seLogS)
+                : CorrectedSnr.meanAndSd(savg.mean(), seAverage, s, seLogS, channels);
         double plain = sa.mean() / s;
         double seLogPlain = Math.sqrt(Math.pow(s / Math.sqrt(nMean) / sa.mean(), 2) + seLogS * seLogS);
         Interval plainCi = sa.mean() > 0 ? new Interval(plain * Math.exp(-Levels.Z95 * seLogPlain),
                 plain * Math.exp(Levels.Z95 * seLogPlain)) : new Interval(Double.NaN, Double.NaN);
         List<Warning> warnings = new ArrayList<>();
+        if (signed) {
+            plainCi = figures.snrCi95();
+            warnings.add(SignedValues.gaussianWarning(signal.name(), negatives, 2L * n));
+        }
         double z = sd.mean() / (sd.sd() / Math.sqrt(nMean));
         if (corr.correlated() && Math.max(corr.neighbourX(), corr.neighbourY()) > 0.1) {
             warnings.add(new Warning("correlated_noise", String.format(Locale.ROOT,

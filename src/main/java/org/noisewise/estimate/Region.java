@@ -121,7 +121,7 @@ public record Region(String name, int[] indices) {
 
     /**
      * The values of several regions pooled into one array, each checked as by {@link #values}; at
-     * least two pixels, none negative (a magnitude image has no negative values).
+     * least two pixels, not signed ({@link SignedValues}: a magnitude image has no negative values).
      */
     public static double[] pooledMagnitudes(float[] pixels, java.util.List<Region> regions) throws InputException {
         int total = 0;
@@ -139,12 +139,7 @@ public record Region(String name, int[] indices) {
             System.arraycopy(part, 0, out, k, part.length);
             k += part.length;
         }
-        for (double v : out) {
-            if (v < 0) {
-                throw new InputException("the background holds negative values, which a magnitude image cannot "
-                        + "have: this looks like a real, phase or subtracted image; use a magnitude image");
-            }
-        }
+        SignedValues.requireMagnitude(out, "the background regions", "every background method");
         return out;
     }
 

@@ -349,14 +349,20 @@ public final class RepeatedAcquisitions {
             throw new InputException("the repeats are identical in region '" + signal.name()
                     + "': there is no noise to measure; check that the stack holds separate acquisitions");
         }
-        SpatialCorrelation.Result corr = residualCorrelation(maps, frames, signal);
+        long[] negatives = new long[2];
+        SpatialCorrelation.Result corr = residualCorrelation(maps, frames, signal, negatives);
         double seLogS = Math.sqrt(corr.squared() / (2.0 * n * (k - 1.0)));
         double seMean = s * Math.sqrt(corr.linear() / ((double) n * k));
-        CorrectedSnr figures = CorrectedSnr.meanAndSd(meanStats.mean(), seMean, s, seLogS, channels);
+        boolean signed = SignedValues.signed((int) Math.min(Integer.MAX_VALUE, negatives[0]), negatives[1]);
+        CorrectedSnr figures = signed ? CorrectedSnr.gaussian(meanStats.mean(), seMean, s, seLogS)
+                : CorrectedSnr.meanAndSd(meanStats.mean(), seMean, s, seLogS, channels);
         double plain = meanStats.mean() / s;
         double seLogPlain = Math.sqrt(Math.pow(seMean / meanStats.mean(), 2) + seLogS * seLogS);
         Interval plainCi = meanStats.mean() > 0 ? new Interval(plain * Math.exp(-Levels.Z95 * seLogPlain),
                 plain * Math.exp(Levels.Z95 * seLogPlain)) : new Interval(Double.NaN, Double.NaN);
+        if (signed) {
+            plainCi = figures.snrCi95();
+        }
         double mapSum = 0;
         int mapCount = 0;
         for (int i : signal.indices()) {
@@ -367,6 +373,9 @@ public final class RepeatedAcquisitions {
             }
         }
         List<Warning> warnings = new ArrayList<>();
+        if (signed) {
+            warnings.add(SignedValues.gaussianWarning(signal.name(), (int) negatives[0], negatives[1]));
+        }
         if (constant > 0) {
             warnings.add(new Warning("constant_pixels", String.format(Locale.ROOT,
                     "%d pixel(s) of region '%s' have the same value in every repeat (no temporal noise: saturated, "
@@ -392,8 +401,11 @@ public final class RepeatedAcquisitions {
                 mapCount > 0 ? mapSum / mapCount : Double.NaN, snrMapBias(k), corr, channels, warnings);
     }
 
-    /** The spatial correlation of the temporal residuals over the region, pooled over the frames. */
-    static SpatialCorrelation.Result residualCorrelation(Maps maps, Frames frames, Region signal)
+    /**
+     * The spatial correlation of the temporal residuals over the region, pooled over the frames; counts
+     * the negative values seen into {@code negatives[0]} of {@code negatives[1]}.
+     */
+    static SpatialCorrelation.Result residualCorrelation(Maps maps, Frames frames, Region signal, long[] negatives)
             throws InputException {
         SpatialCorrelation.Patch p = SpatialCorrelation.Patch.of(signal, maps.width());
         double[] mean = p.sample(maps.mean(), maps.width());
@@ -409,7 +421,9 @@ public final class RepeatedAcquisitions {
             for (int i = 0; i < values.length; i++) {
                 int b = members[1][i];
                 r[b] = values[i] - mean[b];
+                negatives[0] += values[i] < 0 ? 1 : 0;
             }
+            negatives[1] += values.length;
             sums.add(p, r, 0.0);
         }
         return sums.result(0);

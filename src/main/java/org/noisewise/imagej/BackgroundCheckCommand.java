@@ -44,7 +44,7 @@ public class BackgroundCheckCommand implements PlugIn {
             DialogFields.addChannels(gd);
             DialogFields.addPhase(gd, imp);
             gd.addCheckbox("Plot histogram and fit", true);
-            gd.addStringField("PNG file for the plot (optional):", "", 30);
+            gd.addFileField("PNG file for the plot (optional):", "", 30);
             gd.addCheckbox("Replace existing files", false);
             regions.addFields(gd);
             Face.addAppend(gd);

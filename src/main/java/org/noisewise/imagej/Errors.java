@@ -28,6 +28,12 @@ final class Errors {
                 + "memory (Edit > Options > Memory & Threads), or measure fewer slices or a cropped copy of the image.");
     }
 
+    /** An input error's message with its remedy in Fiji's words. */
+    static String text(InputException e) {
+        return e.remedy() == InputException.Remedy.REPLACE
+                ? e.getMessage() + ", or tick Replace existing files in the dialog to replace it" : e.getMessage();
+    }
+
     /** A command's body on the current image. */
     interface Body {
         void run(ImagePlus imp) throws InputException;
@@ -45,7 +51,7 @@ final class Errors {
         try {
             body.run(imp);
         } catch (InputException e) {
-            IJ.error(title, e.getMessage());
+            IJ.error(title, text(e));
         } catch (RuntimeException e) {
             unexpected(title, e);
         } catch (OutOfMemoryError e) {

@@ -13,6 +13,7 @@ import java.awt.Font;
 import java.util.List;
 import org.noisewise.estimate.InputException;
 import org.noisewise.io.Arrangement;
+import org.noisewise.io.QaImages;
 import org.noisewise.io.StackPlanes;
 import org.noisewise.report.ResultRow;
 
@@ -124,30 +125,53 @@ final class Face {
      * (Image > Overlay > Remove Overlay takes it away).
      */
     static void overlay(ImagePlus imp, List<Roi> signal, List<Roi> background) {
+        List<Roi> all = new java.util.ArrayList<>();
+        for (Roi r : signal) {
+            all.add(coloured(r, SIGNAL));
+        }
+        for (Roi r : background) {
+            all.add(coloured(r, BACKGROUND));
+        }
+        List<QaImages.KeyEntry> key = new java.util.ArrayList<>();
+        if (!signal.isEmpty()) {
+            key.add(new QaImages.KeyEntry("signal", SIGNAL, "yellow"));
+        }
+        if (!background.isEmpty()) {
+            key.add(new QaImages.KeyEntry("background", BACKGROUND, "cyan"));
+        }
+        overlayWithKey(imp, all, key);
+    }
+
+    /**
+     * Draws regions in their own stroke colours with a colour key (one line per entry, top left); the
+     * user's own overlay elements stay, earlier Noisewise elements are replaced.
+     */
+    static void overlayWithKey(ImagePlus imp, List<Roi> regions, List<QaImages.KeyEntry> key) {
         Overlay ov = imp.getOverlay() == null ? new Overlay() : imp.getOverlay().duplicate();
         for (int i = ov.size() - 1; i >= 0; i--) {
             if (ov.get(i).getProperty(MARK) != null) {
                 ov.remove(i);
             }
         }
-        for (Roi r : signal) {
-            ov.add(marked(r, SIGNAL));
+        for (Roi r : regions) {
+            ov.add(marked(r, r.getStrokeColor() == null ? SIGNAL : r.getStrokeColor()));
         }
-        for (Roi r : background) {
-            ov.add(marked(r, BACKGROUND));
-        }
-        if (!signal.isEmpty() || !background.isEmpty()) {
+        if (!regions.isEmpty()) {
             Font font = new Font("SansSerif", Font.PLAIN, Math.max(9, imp.getWidth() / 40));
-            TextRoi a = new TextRoi(2, 2, "signal", font);
-            a.setStrokeColor(SIGNAL);
-            a.setProperty(MARK, "legend");
-            ov.add(a);
-            TextRoi b = new TextRoi(2, 4 + font.getSize(), "background", font);
-            b.setStrokeColor(BACKGROUND);
-            b.setProperty(MARK, "legend");
-            ov.add(b);
+            for (int i = 0; i < key.size(); i++) {
+                TextRoi t = new TextRoi(2, 2 + i * (font.getSize() + 2), key.get(i).label(), font);
+                t.setStrokeColor(key.get(i).colour());
+                t.setProperty(MARK, "legend");
+                ov.add(t);
+            }
         }
         imp.setOverlay(ov);
+    }
+
+    private static Roi coloured(Roi r, Color c) {
+        Roi copy = (Roi) r.clone();
+        copy.setStrokeColor(c);
+        return copy;
     }
 
     private static Roi marked(Roi r, Color c) {

@@ -66,9 +66,9 @@ public class PhantomQaCommand implements PlugIn {
             gd.addStringField("Coil (blank = from DICOM):", "", 20);
             gd.addStringField("Protocol (blank = from DICOM):", "", 20);
             gd.addNumericField("Baseline sessions:", 5, 0, 4, "(sessions)");
-            gd.addStringField("Log file (CSV, optional):", "", 30);
-            gd.addStringField("Report file (HTML, optional):", "", 30);
-            gd.addStringField("Trends folder (a PNG per metric, needs a log; optional):", "", 30);
+            gd.addFileField("Log file (CSV, optional):", "", 30);
+            gd.addFileField("Report file (HTML, optional):", "", 30);
+            gd.addDirectoryField("Trends folder (a PNG per metric, needs a log; optional):", "", 30);
             gd.addCheckbox("Replace existing files (report, trend plots)", false);
             gd.addNumericField("Slice:", Face.currentZ(Face.series(imp), imp), 0, 4, "(z, from 1)");
             gd.addCheckbox("Repeats: the stack holds repeated acquisitions of one slice", false);
@@ -160,12 +160,12 @@ public class PhantomQaCommand implements PlugIn {
 
     /** The QA's regions as an overlay on the image (Image > Overlay > Remove Overlay takes it away). */
     static void drawRegions(ImagePlus imp, List<PlacedRegion> regions) {
-        List<Roi> signal = new ArrayList<>();
-        List<Roi> background = new ArrayList<>();
+        List<Roi> rois = new ArrayList<>();
         for (PlacedRegion p : regions) {
-            (p.name().startsWith("signal") || p.name().startsWith("uniformity") ? signal : background).add(QaImages.roi(p));
+            rois.add(QaImages.roi(p));
         }
-        Face.overlay(imp, signal, background);
+        // the report's and the ROI Manager's colour key
+        Face.overlayWithKey(imp, rois, QaImages.KEY);
     }
 
     private static String geometry(Roi r) {

@@ -57,8 +57,8 @@ public class StabilityCommand implements PlugIn {
             gd.addNumericField("Square side (when no signal region):", Stability.DEFAULT_ROI, 0, 4, "pixels");
             gd.addCheckbox("Maps (signal, fluctuation noise, SFNR, static noise)", true);
             gd.addCheckbox("Plots (series, spectrum, Weisskoff curve)", true);
-            gd.addStringField("Log file (CSV, optional):", "", 30);
-            gd.addStringField("Report file (HTML, optional):", "", 30);
+            gd.addFileField("Log file (CSV, optional):", "", 30);
+            gd.addFileField("Report file (HTML, optional):", "", 30);
             gd.addCheckbox("Replace existing files (report)", false);
             gd.addStringField("Scanner (blank = from DICOM):", "", 20);
             gd.addStringField("Coil (blank = from DICOM):", "", 20);
@@ -85,9 +85,9 @@ public class StabilityCommand implements PlugIn {
             int baseline = (int) Math.round(gd.getNextNumber());
             regions.readFields(gd);
             boolean append = gd.getNextBoolean();
-            if (gd.invalidNumber() || skip < 0 || side < 1 || baseline < 1) {
-                throw new InputException("Skip must be a whole number of frames (0 or more), the square side and the "
-                        + "baseline sessions whole numbers of at least 1.");
+            if (gd.invalidNumber() || skip < 0 || side < 1 || baseline < 2) {
+                throw new InputException("Skip must be a whole number of frames (0 or more), the square side a whole "
+                        + "number of at least 1, and Baseline sessions at least 2.");
             }
             List<Roi> signal = regions.signalRegions();
             if (signal.size() > 1) {

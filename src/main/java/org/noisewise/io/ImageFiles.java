@@ -11,7 +11,18 @@ public final class ImageFiles {
     /** How a command-line user chooses one echo of a multi-echo series. */
     public static final String ECHO_HINT = "choose one with --echo N";
 
+    /** File endings that are never images (ImageJ would open some of them as a text image). */
+    private static final java.util.Set<String> NOT_IMAGES = java.util.Set.of("txt", "csv", "tsv", "json", "md", "html",
+            "htm", "xml", "pdf", "log", "lock", "part", "py", "sh", "ijm", "doc", "docx", "xls", "xlsx", "ods", "odt");
+
     private ImageFiles() {
+    }
+
+    /** True for a file whose ending says it is text, a table or a document rather than an image. */
+    public static boolean notAnImage(Path file) {
+        String n = file.getFileName().toString().toLowerCase(java.util.Locale.ROOT);
+        int dot = n.lastIndexOf('.');
+        return dot >= 0 && NOT_IMAGES.contains(n.substring(dot + 1));
     }
 
     /**
@@ -43,6 +54,10 @@ public final class ImageFiles {
         if (!Files.isReadable(file)) {
             throw new InputException("cannot read '" + file + "': check its permissions");
         }
+        if (notAnImage(file)) {
+            throw new InputException("'" + file + "' is not an image (its ending says text, a table or a document): "
+                    + "give an image file (TIFF, DICOM, NIfTI) or a folder of one DICOM series");
+        }
         FileChecks.requireDecodableDicom(file);
         if (DicomSeries.isDicom(file)) {
             ImagePlus dicom = DicomSeries.openFile(file, echo, ECHO_HINT);
@@ -51,7 +66,7 @@ public final class ImageFiles {
             }
         }
         ImagePlus imp = DicomSeries.read(file.toAbsolutePath());
-        if (imp == null || imp.getWidth() == 0) {
+        if (imp == null || imp.getWidth() == 0 || imp.getHeight() == 0) {
             throw new InputException("cannot read '" + file + "' as an image: ImageJ does not recognise "
                     + "its format or the file is damaged; export it as TIFF or DICOM");
         }

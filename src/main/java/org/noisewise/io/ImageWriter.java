@@ -13,9 +13,9 @@ import org.noisewise.estimate.InputException;
  * Writes output files safely: never over an existing file unless asked, never over an input, and
  * through a temporary file in the same folder ({@code .NAME.<random>.part}) renamed into place, so an
  * interrupted run leaves no half-written file. Temporary files are removed on every normal and error
- * exit and, through a shutdown hook, when the program is interrupted; one left by a killed process
- * (which no hook survives) is removed by the next write of the same file once it is older than this
- * run.
+ * exit and, through a shutdown hook, when the program is interrupted; those left by a killed process
+ * (which no hook survives) are removed by the next write into the same folder, whatever it writes,
+ * once they are older than this run.
  */
 public final class ImageWriter {
 
@@ -51,6 +51,9 @@ public final class ImageWriter {
      */
     public static void checkFolderWritable(Path out) throws InputException {
         Path dir = out.toAbsolutePath().getParent();
+        if (dir != null && Files.exists(dir) && !Files.isDirectory(dir)) {
+            throw new InputException("'" + dir + "' is a file, not a folder: give a folder to write into");
+        }
         if (dir == null || !Files.isDirectory(dir)) {
             throw new InputException("folder '" + dir + "' does not exist: create it first, or write elsewhere");
         }
@@ -78,11 +81,41 @@ public final class ImageWriter {
             throw new InputException("'" + out + "' is a folder: give a file name for the output");
         }
         if (Files.exists(out) && !force) {
-            throw new InputException("'" + out + "' exists: choose another name or add --force to replace it");
+            throw new InputException("'" + out + "' exists: choose another name", InputException.Remedy.REPLACE);
         }
         Path dir = out.toAbsolutePath().getParent();
+        if (dir != null && Files.exists(dir) && !Files.isDirectory(dir)) {
+            throw new InputException("'" + dir + "' is a file, not a folder: give a folder to write into");
+        }
         if (dir != null && !Files.isDirectory(dir)) {
             throw new InputException("folder '" + dir + "' does not exist: create it first");
+        }
+    }
+
+    /**
+     * An output folder (for plots, trend plots): used when it exists, created when only its parent does
+     * (as users expect of an output folder); a file of that name, or a missing parent, is refused.
+     *
+     * @param what what the folder is for, for messages ("plots")
+     */
+    public static Path outputFolder(Path dir, String what) throws InputException {
+        if (Files.isDirectory(dir)) {
+            return dir;
+        }
+        if (Files.exists(dir)) {
+            throw new InputException("'" + dir + "' is a file, not a folder: give a folder for the " + what);
+        }
+        Path parent = dir.toAbsolutePath().getParent();
+        if (parent == null || !Files.isDirectory(parent)) {
+            throw new InputException("cannot create the folder for the " + what + " '" + dir + "': its parent folder '"
+                    + parent + "' does not exist; create it first or give another folder");
+        }
+        try {
+            return Files.createDirectory(dir);
+        } catch (java.nio.file.FileAlreadyExistsException e) {
+            return dir;
+        } catch (IOException e) {
+            throw new InputException("cannot create the folder for the " + what + " '" + dir + "': " + reason(e));
         }
     }
 
@@ -170,14 +203,16 @@ public final class ImageWriter {
         }
     }
 
-    /** Removes {@code .NAME.*.part} files of {@code out} last written before this process started. */
+    /** The names of this class's temporary files: {@code .NAME.<digits>.part}. */
+    private static final java.util.regex.Pattern TEMPORARY = java.util.regex.Pattern.compile("^\\..+\\.\\d+\\.part$");
+
+    /**
+     * Removes the temporary files of this class ({@code .NAME.<digits>.part}) in the folder of
+     * {@code out} that were last written before this process started (a killed run's leftovers).
+     */
     static void removeStale(Path out) {
         Path dir = out.toAbsolutePath().getParent();
-        String prefix = "." + out.getFileName() + ".";
-        try (var files = Files.newDirectoryStream(dir, f -> {
-            String n = f.getFileName().toString();
-            return n.startsWith(prefix) && n.endsWith(".part");
-        })) {
+        try (var files = Files.newDirectoryStream(dir, f -> TEMPORARY.matcher(f.getFileName().toString()).matches())) {
             for (Path f : files) {
                 if (!OPEN.contains(f) && Files.getLastModifiedTime(f).toMillis() < STARTED) {
                     Files.deleteIfExists(f);

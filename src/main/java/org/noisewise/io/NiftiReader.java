@@ -50,28 +50,36 @@ public final class NiftiReader {
              InputStream in = file.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".gz")
                      ? new GZIPInputStream(raw) : raw) {
             bytes = in.readAllBytes();
+        } catch (java.util.zip.ZipException e) {
+            throw bad(file, "its name ends in .gz but it is not gzip-compressed data (or the compressed data are "
+                    + "damaged): rename it to .nii if it is uncompressed, or check the transfer and copy it again");
+        } catch (java.io.EOFException e) {
+            throw bad(file, "the compressed data end early: the file is empty or was cut short in a transfer; copy or "
+                    + "export it again");
         } catch (IOException e) {
-            throw bad(file, "it cannot be read (" + (e instanceof java.io.EOFException
-                    ? "the compressed data end early: the file is empty or cut short" : ImageWriter.reason(e)) + ")");
+            throw bad(file, "it cannot be read (" + ImageWriter.reason(e) + "): check that it exists and can be read");
         }
         if (bytes.length < HEADER + 4) {
-            throw bad(file, "it is shorter than a NIfTI-1 header");
+            throw bad(file, "it is shorter than a NIfTI-1 header (" + bytes.length + " bytes, a header alone has "
+                    + HEADER + "): it is empty or cut short; copy or export it again");
         }
         ByteBuffer b = ByteBuffer.wrap(bytes).order(ByteOrder.LITTLE_ENDIAN);
         if (b.getInt(0) != HEADER) {
             b.order(ByteOrder.BIG_ENDIAN);
             if (b.getInt(0) != HEADER) {
-                throw bad(file, "its header size is not 348 (not NIfTI-1; NIfTI-2 is not supported)");
+                throw bad(file, "its header size is not 348: it is not a NIfTI-1 file (NIfTI-2 is not supported) or its "
+                        + "header is damaged; export it again as NIfTI-1 (or TIFF)");
             }
         }
         String magic = new String(bytes, 344, 3, java.nio.charset.StandardCharsets.US_ASCII);
         if (!magic.equals("n+1")) {
             throw bad(file, magic.equals("ni1") ? "it is a two-file (.hdr/.img) NIfTI: convert it to a single .nii"
-                    : "its magic string is not n+1");
+                    : "its magic string is not n+1 (a damaged header, or not NIfTI-1): export it again as NIfTI-1");
         }
         int ndim = b.getShort(40);
         if (ndim < 2 || ndim > 4) {
-            throw bad(file, "it has " + ndim + " dimensions; 2, 3 or 4 are supported");
+            throw bad(file, "it has " + ndim + " dimensions; 2, 3 or 4 are supported: export the volume or time series "
+                    + "on its own");
         }
         int nx = b.getShort(42);
         int ny = b.getShort(44);
@@ -96,8 +104,9 @@ public final class NiftiReader {
         };
         long voxels = (long) nx * ny * nz * nt;
         if (nx < 1 || ny < 1 || offset < HEADER || offset + voxels * bytesPer > bytes.length) {
-            throw bad(file, "its header describes " + nx + "x" + ny + "x" + nz + "x" + nt
-                    + " voxels that the file does not hold (truncated?)");
+            throw bad(file, "its header describes " + nx + "x" + ny + "x" + nz + "x" + nt + " voxels (" + voxels * bytesPer
+                    + " bytes from byte " + offset + ") but the file holds " + bytes.length + " bytes: it is truncated "
+                    + "(cut short in a transfer) or its header is damaged; copy or export it again");
         }
         boolean scaled = slope != 0 && Float.isFinite(slope) && !(slope == 1 && inter == 0);
         ImageStack stack = new ImageStack(nx, ny);

@@ -25,9 +25,21 @@ public final class QaImages {
     private QaImages() {
     }
 
-    /** The colour of each kind of region, as drawn and as the captions name it. */
-    public static final String LEGEND = "signal region yellow, ghosting regions (also background, where marked + bg) "
-            + "magenta, background-only regions cyan, uniformity high green, uniformity low orange";
+    /** One entry of the colour key: what a colour marks. */
+    public record KeyEntry(String label, Color colour, String colourName) {
+    }
+
+    /** The colour key of the QA regions: the same in the report, the Fiji overlay and the ROI Manager. */
+    public static final List<KeyEntry> KEY = List.of(
+            new KeyEntry("signal region", Color.yellow, "yellow"),
+            new KeyEntry("ghosting regions (also background, where marked + bg)", Color.magenta, "magenta"),
+            new KeyEntry("background-only regions", Color.cyan, "cyan"),
+            new KeyEntry("uniformity high", Color.green, "green"),
+            new KeyEntry("uniformity low", Color.orange, "orange"));
+
+    /** The colour key as words, for captions. */
+    public static final String LEGEND = String.join(", ", KEY.stream().map(k -> k.label() + " " + k.colourName())
+            .toList());
 
     /** The largest side of a slice drawn in a report. */
     public static final int MAX_SIDE = 1024;
@@ -41,17 +53,18 @@ public final class QaImages {
         return r;
     }
 
-    static Color colour(String name) {
+    /** The key colour of a region by its name. */
+    public static Color colour(String name) {
         if (name.startsWith("signal")) {
-            return Color.yellow;
+            return KEY.get(0).colour();
         }
         if (name.startsWith("bg")) {
-            return Color.cyan;
+            return KEY.get(2).colour();
         }
         if (name.startsWith("ghost")) {
-            return Color.magenta;
+            return KEY.get(1).colour();
         }
-        return name.contains("high") ? Color.green : Color.orange;
+        return name.contains("high") ? KEY.get(3).colour() : KEY.get(4).colour();
     }
 
     /**
@@ -60,6 +73,63 @@ public final class QaImages {
      * labels kept inside the picture.
      */
     public static ImagePlus sliceWithRegions(String title, float[] pixels, int width, int height, List<PlacedRegion> regions) {
+        return sliceWithRegions(title, pixels, width, height, regions, null);
+    }
+
+    /**
+     * The display range of a map: from the 1st to the 99th percentile of its finite values inside the
+     * object (values above a quarter of the 99th percentile of all), so the object's grey levels show
+     * instead of a uniform white disk on black air.
+     */
+    public static double[] objectRange(float[] v) {
+        float[] finite = finite(v);
+        if (finite.length == 0) {
+            return null;
+        }
+        java.util.Arrays.sort(finite);
+        double top = finite[(int) (0.99 * (finite.length - 1))];
+        int from = 0;
+        while (from < finite.length && finite[from] < 0.25 * top) {
+            from++;
+        }
+        int n = finite.length - from;
+        if (n < 10) {
+            return new double[] {finite[0], finite[finite.length - 1]};
+        }
+        double lo = finite[from + (int) (0.01 * (n - 1))];
+        double hi = finite[from + (int) (0.99 * (n - 1))];
+        return hi > lo ? new double[] {lo, hi} : null;
+    }
+
+    /** The display range of a map of signed or noise-like values: its 1st to 99th percentile. */
+    public static double[] percentileRange(float[] v) {
+        float[] finite = finite(v);
+        if (finite.length == 0) {
+            return null;
+        }
+        java.util.Arrays.sort(finite);
+        double lo = finite[(int) (0.01 * (finite.length - 1))];
+        double hi = finite[(int) (0.99 * (finite.length - 1))];
+        return hi > lo ? new double[] {lo, hi} : null;
+    }
+
+    private static float[] finite(float[] v) {
+        float[] out = new float[v.length];
+        int n = 0;
+        for (float x : v) {
+            if (Float.isFinite(x)) {
+                out[n++] = x;
+            }
+        }
+        return java.util.Arrays.copyOf(out, n);
+    }
+
+    /**
+     * The slice with its regions, as above, shown over {@code range} (min, max; values outside it black
+     * or white), or over its whole range when {@code range} is null; NaN shows black.
+     */
+    public static ImagePlus sliceWithRegions(String title, float[] pixels, int width, int height, List<PlacedRegion> regions,
+                                             double[] range) {
         int side = Math.max(width, height);
         ImageProcessor source = new FloatProcessor(width, height, pixels);
         ImageProcessor ip;
@@ -79,7 +149,11 @@ public final class QaImages {
         }
         int sw = ip.getWidth();
         int sh = ip.getHeight();
-        ip.resetMinAndMax();
+        if (range != null) {
+            ip.setMinAndMax(range[0], range[1]);
+        } else {
+            ip.resetMinAndMax();
+        }
         ImagePlus imp = new ImagePlus(title, ip.convertToByte(true));
         Overlay ov = new Overlay();
         Font font = new Font("SansSerif", Font.PLAIN, 11);
@@ -110,15 +184,17 @@ public final class QaImages {
 
     /**
      * A metric's history against acquisition date with its baseline: the warning band shaded, the
-     * centre, the action limits, a published limit, and the sessions that form the baseline filled.
+     * centre, the action limits, a published limit; every session a marker on a line through them, the
+     * sessions that form the baseline filled; calendar dates on the time axis (ImageJ's numbers would
+     * be days since an origin); the key inside the frame, above the data.
      *
-     * @param days    each session's acquisition time in days since the first
-     * @param members which sessions are baseline members
-     * @param origin  the date day 0 stands for, for the axis label
+     * @param days        each session's acquisition time in days since {@code originDay}
+     * @param members     which sessions are baseline members
+     * @param originDay   the date day 0 stands for (days since 1970-01-01)
      */
     public static Plot trend(String label, double[] days, double[] values, boolean[] members, QaLog.Baseline b,
-                             ActionLimits limits, String metric, String origin) {
-        Plot plot = new Plot("Trend - " + label, "Days since " + origin, label);
+                             ActionLimits limits, String metric, long originDay) {
+        Plot plot = new Plot("Trend - " + label, "Acquisition date", label);
         double lo = Double.POSITIVE_INFINITY;
         double hi = Double.NEGATIVE_INFINITY;
         double x0 = 0;
@@ -146,9 +222,12 @@ public final class QaImages {
             lo = 0;
             hi = 1;
         }
-        double ypad = hi > lo ? 0.08 * (hi - lo) : Math.max(1e-6, Math.abs(hi) * 0.05);
-        double bottom = lo - ypad;
-        plot.setLimits(ends[0], ends[1], bottom, hi + ypad);
+        double span = hi > lo ? hi - lo : Math.max(1e-6, Math.abs(hi) * 0.05);
+        double bottom = lo - 0.08 * span;
+        // room above the data for the two lines of the key
+        double top = hi + 0.30 * span;
+        plot.setFormatFlags(Plot.Y_NUMBERS | Plot.Y_TICKS | Plot.Y_GRID | Plot.X_TICKS);
+        plot.setLimits(ends[0], ends[1], bottom, top);
         if (b.usable()) {
             // the warning band: filled to the bottom of the frame, then the part below it painted over
             plot.setColor(new Color(255, 235, 180), new Color(255, 235, 180));
@@ -167,8 +246,25 @@ public final class QaImages {
             plot.add("line", ends, new double[] {limit, limit});
             plot.setLineWidth(1);
         }
-        plot.setColor(new Color(20, 90, 170));
-        plot.add("connected circle", days, values);
+        // calendar dates: grid lines and labels at whole-day steps that leave room for each label
+        List<Long> ticks = dateTicks(ends[0], ends[1]);
+        plot.setColor(new Color(215, 215, 215));
+        for (long d : ticks) {
+            plot.drawLine(d, bottom, d, top);
+        }
+        plot.setColor(Color.black);
+        plot.setJustification(Plot.CENTER);
+        for (long d : ticks) {
+            plot.addLabel((d - ends[0]) / (ends[1] - ends[0]), 1.07, java.time.LocalDate.ofEpochDay(originDay + d)
+                    .toString());
+        }
+        plot.setJustification(Plot.LEFT);
+        Color sessions = new Color(20, 90, 170);
+        plot.setColor(sessions);
+        plot.add("line", days, values);
+        // open markers for every session; filled ones (fill colour set) for the baseline's members
+        plot.setColor(sessions, Color.white);
+        plot.add("circle", days, values);
         int m = 0;
         for (boolean k : members) {
             m += k ? 1 : 0;
@@ -181,14 +277,41 @@ public final class QaImages {
                 my[k++] = values[i];
             }
         }
-        plot.setColor(new Color(20, 90, 170), new Color(20, 90, 170));
-        plot.add("filled circle", mx, my);
+        if (m > 0) {
+            plot.setColor(sessions, sessions);
+            plot.add("circle", mx, my);
+        }
         plot.setColor(Color.black);
-        plot.addLabel(0.01, 0.06, b.usable() ? String.format(java.util.Locale.ROOT, "baseline %d of %d sessions (filled): "
-                + "green centre, shaded warning band, red action limits%s", b.sessions(), b.needed(),
-                limit != null ? "; black: published limit" : "")
-                : "baseline forming: " + b.sessions() + " of at least " + QaLog.MIN_COMPARE + " sessions");
+        if (b.usable()) {
+            plot.addLabel(0.01, 0.07, String.format(java.util.Locale.ROOT, "sessions: filled = the %d of the baseline",
+                    b.sessions()));
+            plot.addLabel(0.01, 0.14, "green: centre; shaded: warning band; red: action limits"
+                    + (limit != null ? "; black: published limit" : ""));
+        } else {
+            plot.addLabel(0.01, 0.07, "baseline forming: " + b.sessions() + " of at least " + QaLog.MIN_COMPARE
+                    + " sessions");
+            if (limit != null) {
+                plot.addLabel(0.01, 0.14, "black: published limit");
+            }
+        }
         return plot;
+    }
+
+    /** Day numbers in [from, to] at a whole step of 1, 2, 7, 14, 28, 56, 91, 182 or 364 days, at most 6 of them. */
+    static List<Long> dateTicks(double from, double to) {
+        long[] steps = {1, 2, 7, 14, 28, 56, 91, 182, 364, 728};
+        long step = steps[steps.length - 1];
+        for (long s : steps) {
+            if ((to - from) / s <= 5.5) {
+                step = s;
+                break;
+            }
+        }
+        List<Long> out = new java.util.ArrayList<>();
+        for (long d = (long) Math.ceil(Math.max(0, from) / step) * step; d <= to; d += step) {
+            out.add(d);
+        }
+        return out;
     }
 
     /** PNG bytes of an image (flattened with its overlay). */

@@ -67,6 +67,28 @@ public final class QaLogFile {
         }
     }
 
+    /** Refuses an existing file that is not a Noisewise QA log (a new file is fine). */
+    public static void requireLog(Path log) throws InputException {
+        if (!Files.isRegularFile(log)) {
+            return;
+        }
+        try (var in = Files.newBufferedReader(log, StandardCharsets.UTF_8)) {
+            String first = in.readLine();
+            if (first != null && !first.isEmpty() && !first.startsWith(QaLog.COLUMNS.get(0))) {
+                throw notALog(log);
+            }
+        } catch (java.nio.charset.CharacterCodingException e) {
+            throw notALog(log);
+        } catch (IOException e) {
+            throw new InputException("cannot read QA log '" + log + "': " + ImageWriter.reason(e));
+        }
+    }
+
+    private static InputException notALog(Path log) {
+        return new InputException("'" + log + "' is not a Noisewise QA log (its first line is not the expected header): "
+                + "give another file name");
+    }
+
     /** The rows of the log, or none when it does not exist yet. */
     public static List<QaLog.Entry> read(Path log) throws InputException {
         if (!Files.exists(log)) {
@@ -94,14 +116,15 @@ public final class QaLogFile {
         if (dir == null || !Files.isDirectory(dir)) {
             throw new InputException("folder of the QA log '" + log + "' does not exist: create it first");
         }
+        // a file that is not a QA log is refused before anything (the lock file too) is made beside it
+        requireLog(log);
         Path lock = log.resolveSibling(log.getFileName() + ".lock");
         IN_PROCESS.lock();
         try (FileChannel ch = FileChannel.open(lock, StandardOpenOption.CREATE, StandardOpenOption.WRITE);
              FileLock ignored = lock(ch, log)) {
             String old = Files.exists(log) ? Files.readString(log, StandardCharsets.UTF_8) : "";
             if (!old.isEmpty() && !old.startsWith(QaLog.COLUMNS.get(0))) {
-                throw new InputException("'" + log + "' is not a Noisewise QA log (its first line is not the expected "
-                        + "header): give another file name");
+                throw notALog(log);
             }
             StringBuilder text = new StringBuilder(old);
             if (old.isEmpty()) {

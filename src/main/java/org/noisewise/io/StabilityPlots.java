@@ -26,40 +26,40 @@ public final class StabilityPlots {
         p.setLineWidth(1);
         p.setColor(Color.black);
         p.addLegend("region mean\tsecond-order fit");
-        p.setLimitsToFit(false);
+        PlotAxes.fit(p, new double[][] {x}, new double[][] {r.series(), r.fit()}, false);
         return p;
     }
 
     /** The power spectrum of the region-mean residuals (after the fit), from 0 to the Nyquist frequency. */
-    public static Plot spectrum(String title, StabilityResult r) {
+    public static Plot spectrum(String title, StabilityResult r, String unit) {
         boolean timed = Double.isFinite(r.repetitionSeconds()) && r.repetitionSeconds() > 0;
-        Plot p = new Plot(title, timed ? "Frequency [Hz]" : "Frequency [cycles per frame]", "Residual power");
+        Plot p = new Plot(title, timed ? "Frequency [Hz]" : "Frequency [cycles per frame]", "Residual power [" + unit
+                + "^2]");
         p.setColor(Color.blue);
         p.add("line", r.frequency(), r.power());
         p.setColor(Color.black);
-        p.setLimitsToFit(false);
+        PlotAxes.fit(p, new double[][] {r.frequency()}, new double[][] {r.power()}, true);
         return p;
     }
 
     /**
      * The Weisskoff curve: the percent coefficient of variation of the detrended mean of an n x n region
-     * against n, with the ideal {@code F(1) / n} of independent voxels, both axes logarithmic.
+     * against n, with the ideal {@code F(1) / n} of independent voxels, both axes logarithmic (plain
+     * numbers, {@link PlotAxes#logLog}).
      */
     public static Plot weisskoff(String title, StabilityResult r) {
         double[] n = new double[r.roiSize()];
         for (int k = 0; k < n.length; k++) {
             n[k] = k + 1;
         }
-        Plot p = new Plot(title, "Region side n [pixels]", "Fluctuation F(n) [%]");
-        p.setLogScaleX();
-        p.setLogScaleY();
+        Plot p = new Plot(title, "Region side n [pixels] (log scale)", "Fluctuation F(n) [%] (log scale)");
+        PlotAxes.logLog(p, new double[][] {n}, new double[][] {r.ideal(), r.weisskoff()});
         p.setColor(Color.gray);
-        p.add("line", n, r.ideal());
+        p.add("line", PlotAxes.log(n), PlotAxes.log(r.ideal()));
         p.setColor(Color.red);
-        p.add("connected circle", n, r.weisskoff());
+        p.add("connected circle", PlotAxes.log(n), PlotAxes.log(r.weisskoff()));
         p.setColor(Color.black);
         p.addLegend("ideal F(1)/n\tmeasured F(n)");
-        p.setLimitsToFit(false);
         return p;
     }
 }

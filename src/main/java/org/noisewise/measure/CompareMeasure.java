@@ -44,6 +44,7 @@ public final class CompareMeasure {
             throw new InputException("'" + titleA + "' has " + StackPlanes.zCount(a) + " z slices and '" + titleB + "' "
                     + StackPlanes.zCount(b) + ": give acquisitions of the same slices (or choose one with the slice option)");
         }
+        Planes.requireDifferent(a, titleA, b, titleB);
         String kindA = InputSnr.kind(a);
         String kindB = InputSnr.kind(b);
         if (!kindA.equals(kindB)) {

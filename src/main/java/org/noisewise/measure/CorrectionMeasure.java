@@ -11,6 +11,7 @@ import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.RicianCorrection;
 import org.noisewise.estimate.SigmaEstimate;
 import org.noisewise.estimate.SigmaEstimator;
+import org.noisewise.estimate.SignedValues;
 import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.ResultImages;
@@ -60,6 +61,7 @@ public final class CorrectionMeasure {
         for (int s = 1; s <= n; s++) {
             progress.report((s - 1.0) / n, "Rician bias correction: slice " + s + " of " + n);
             float[] px = ImagePlanes.calibratedPixels(imp, s);
+            SignedValues.requireMagnitude(px, "slice " + s, "Rician bias correction");
             double sigma = o.sigma();
             SigmaEstimate measured = null;
             if (measure) {
@@ -74,8 +76,20 @@ public final class CorrectionMeasure {
                                 + "(maximum likelihood, 95%% interval %.5g-%.5g)", s, sigma, unit, measured.ci95().low(),
                         measured.ci95().high()));
             }
-            out.addSlice(imp.getStack().getSliceLabel(s), new FloatProcessor(w, h,
-                    RicianCorrection.correct(px, w, h, sigma, o.channels(), o.method(), o.window())));
+            float[] corrected = RicianCorrection.correct(px, w, h, sigma, o.channels(), o.method(), o.window());
+            out.addSlice(imp.getStack().getSliceLabel(s), new FloatProcessor(w, h, corrected));
+            int zeros = 0;
+            int before = 0;
+            for (int i = 0; i < corrected.length; i++) {
+                zeros += corrected[i] == 0 ? 1 : 0;
+                before += px[i] == 0 ? 1 : 0;
+            }
+            if (zeros > 0.99 * corrected.length && before < 0.5 * px.length) {
+                notes.add(String.format(Locale.ROOT, "slice %d: the corrected slice is zero (or nearly) everywhere: the "
+                        + "noise floor of sigma %.5g %s with %d channel(s) lies above the image's values, so every pixel "
+                        + "is taken as pure noise; check sigma and the channel count (sigma is usually a few units, "
+                        + "like the SD of the air divided by 0.655 for one channel)", s, sigma, unit, o.channels()));
+            }
             String u = " [" + unit + "]";
             rows.add(new ResultRow()
                     .add("image", "Image", title)

@@ -56,6 +56,13 @@ public final class GFactorMeasure {
             throw new InputException("nothing to do: give a signal region for the g-factor of a region, or ask for the map");
         }
         int w = window != null ? window : (kf == 2 || ka == 2 ? PAIR_WINDOW : 1);
+        int largest = Math.min(full.getWidth(), full.getHeight());
+        largest -= largest % 2 == 0 ? 1 : 0;
+        if (w < 1 || w % 2 == 0 || w > largest) {
+            throw new InputException("the map window must be an odd number of pixels from 1 to " + largest + " (the "
+                    + full.getWidth() + "x" + full.getHeight() + " image), was " + w);
+        }
+        Planes.requireDifferent(full, titleFull, accel, titleAccel);
         List<String> notes = Measurement.imageNotes(full, accel);
         if (window == null && w > 1) {
             notes.add("pixel map: variances averaged over " + w + "x" + w + " pixels, as one input is a pair");

@@ -43,13 +43,14 @@ record InputSnr(String method, CorrectedSnr figures, int repeats) {
         int k = StackPlanes.repeatCount(imp);
         if (k >= 3) {
             RepeatedAcquisitions.Maps m = maps != null ? maps : RepeatedMaps.compute(imp, z);
-            return new InputSnr("repeated", RepeatedAcquisitions.summarize(m, RepeatedMaps.frames(imp, z), signal,
-                    channels).figures(), k);
+            return positive(new InputSnr("repeated", RepeatedAcquisitions.summarize(m, RepeatedMaps.frames(imp, z),
+                    signal, channels).figures(), k), title, signal);
         }
         if (k == 2) {
             float[] a = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, 1));
             float[] b = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, 2));
-            return new InputSnr("difference", DifferenceSnr.analyze(a, b, imp.getWidth(), signal, channels).figures(), 2);
+            return positive(new InputSnr("difference", DifferenceSnr.analyze(a, b, imp.getWidth(), signal, channels)
+                    .figures(), 2), title, signal);
         }
         if (background.isEmpty()) {
             throw new InputException("'" + title + "' is a single image, so its SNR comes from background regions: give "
@@ -64,5 +65,19 @@ record InputSnr(String method, CorrectedSnr figures, int repeats) {
                     + "): measure with a pair or a series of repeated acquisitions instead");
         }
         return new InputSnr("background (" + r.verdict().key() + ")", r.figures(), 1);
+    }
+
+    /**
+     * Refuses an SNR at or below zero from signed data (the Gaussian model, {@code channels() == 0}): a
+     * ratio of SNRs needs a signal above zero.
+     */
+    private static InputSnr positive(InputSnr s, String title, Region signal) throws InputException {
+        if (s.figures().channels() == 0 && !(s.figures().snr() > 0)) {
+            throw new InputException(String.format(java.util.Locale.ROOT, "region '%s' of '%s' holds signed values "
+                    + "(below zero: not a magnitude image) with a mean at or below zero (SNR %.3g): a ratio of SNRs "
+                    + "needs a signal above zero; measure magnitude images, with the region on the object",
+                    signal.name(), title, s.figures().snr()));
+        }
+        return s;
     }
 }

@@ -33,7 +33,8 @@ public record Measurement(List<ResultRow> rows, List<ImagePlus> images, List<Plo
                 continue;
             }
             String a = Arrangement.note(imp);
-            if (a != null && !notes.contains(a)) {
+            // a single image needs no word on how it was arranged
+            if (a != null && imp.getStackSize() > 1 && !notes.contains(a)) {
                 notes.add(a);
             }
             String n = ImagePlanes.lookupTableNote(imp);

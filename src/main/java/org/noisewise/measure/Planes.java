@@ -15,6 +15,32 @@ public final class Planes {
     private Planes() {
     }
 
+    /**
+     * Refuses two inputs that hold the same pixels (the same file given twice): a comparison of two
+     * acquisitions needs two acquisitions.
+     */
+    public static void requireDifferent(ImagePlus a, String titleA, ImagePlus b, String titleB) throws InputException {
+        if (a == b || a.getStackSize() == b.getStackSize() && a.getBitDepth() == b.getBitDepth()
+                && samePixels(a, b)) {
+            throw new InputException("'" + titleA + "' and '" + titleB + "' hold the same pixels: the same acquisition "
+                    + "was given twice; give two different acquisitions");
+        }
+    }
+
+    private static boolean samePixels(ImagePlus a, ImagePlus b) {
+        for (int n = 1; n <= a.getStackSize(); n++) {
+            Object pa = a.getStack().getPixels(n);
+            Object pb = b.getStack().getPixels(n);
+            boolean same = pa instanceof float[] fa && pb instanceof float[] fb ? java.util.Arrays.equals(fa, fb)
+                    : pa instanceof short[] sa && pb instanceof short[] sb ? java.util.Arrays.equals(sa, sb)
+                    : pa instanceof byte[] ba && pb instanceof byte[] bb && java.util.Arrays.equals(ba, bb);
+            if (!same) {
+                return false;
+            }
+        }
+        return true;
+    }
+
     /** Every stack plane. */
     public static int[] all(ImagePlus imp) {
         return IntStream.rangeClosed(1, imp.getStackSize()).toArray();

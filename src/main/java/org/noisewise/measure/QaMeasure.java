@@ -2,7 +2,6 @@ package org.noisewise.measure;
 
 import ij.ImagePlus;
 import ij.measure.Calibration;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
@@ -257,15 +256,13 @@ public final class QaMeasure {
                 throw new InputException("the QA log '" + o.log() + "' is the input image: give another file name");
             }
             ImageWriter.checkFolderWritable(o.log());
+            QaLogFile.requireLog(o.log());
         }
         if (o.trendDir() != null) {
             if (o.log() == null) {
                 throw new InputException("trend plots need a QA log to plot: give a log file as well");
             }
-            if (!Files.isDirectory(o.trendDir())) {
-                throw new InputException("the folder for trend plots '" + o.trendDir() + "' does not exist: create it "
-                        + "first");
-            }
+            ImageWriter.outputFolder(o.trendDir(), "trend plots");
             for (String metric : QaLog.METRICS.keySet()) {
                 ImageWriter.checkWritable(o.trendDir().resolve("trend_" + metric + ".png"), o.force(), source);
             }
@@ -449,8 +446,9 @@ public final class QaMeasure {
         List<QaLog.Entry> mine = all.stream().filter(e -> e.key().equals(key)).toList();
         double[] when = mine.stream().mapToDouble(QaMeasure::epochDays).toArray();
         double origin = java.util.Arrays.stream(when).filter(Double::isFinite).min().orElse(0);
-        double[] days = java.util.Arrays.stream(when).map(d -> Double.isFinite(d) ? d - origin : 0).toArray();
-        String originText = java.time.LocalDate.ofEpochDay((long) Math.floor(origin)).toString();
+        double[] days = java.util.Arrays.stream(when).map(d -> Double.isFinite(d) ? d - Math.floor(origin) : 0)
+                .toArray();
+        long originDay = (long) Math.floor(origin);
         Map<String, byte[]> pngs = new LinkedHashMap<>();
         for (Map.Entry<String, String> m : QaLog.METRICS.entrySet()) {
             if (!Double.isFinite(entry.number(m.getKey()))) {
@@ -460,7 +458,7 @@ public final class QaMeasure {
             QaLog.Baseline b = QaLog.baseline(all, key, m.getKey(), baseline);
             boolean[] members = members(all, mine, key, m.getKey(), baseline);
             pngs.put(m.getKey(), QaImages.png(QaImages.trend(m.getValue(), days, v, members, b,
-                    limits, m.getKey(), originText).getImagePlus()));
+                    limits, m.getKey(), originDay).getImagePlus()));
         }
         return pngs;
     }

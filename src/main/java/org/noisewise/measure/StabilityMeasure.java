@@ -102,6 +102,11 @@ public final class StabilityMeasure {
                 throw new InputException("the QA log '" + o.log() + "' is the input series: give another file name");
             }
             ImageWriter.checkFolderWritable(o.log());
+            QaLogFile.requireLog(o.log());
+        }
+        if (o.baseline() < 2) {
+            throw new InputException("the baseline must be at least 2 sessions (control limits need a spread), was "
+                    + o.baseline());
         }
         List<String> notes = new ArrayList<>(Measurement.imageNotes(imp));
         if (!StackPlanes.hasTimeAxis(imp) && imp.getStackSize() > 1) {
@@ -125,9 +130,17 @@ public final class StabilityMeasure {
             Progress part = progress.part((double) i / zs.length, (i + 1.0) / zs.length);
             String where = zCount > 1 ? " z " + z + " of " + zCount : "";
             SeriesFrames f = SeriesFrames.of(imp, z);
+            requireFinite(f, w, zCount > 1 ? z : 0);
             StabilityMaps maps = Stability.maps(f.frames(), w, h, o.skip(), f.offset(), f.slope(), f.table(),
                     x -> part.report(0.7 * x, "Stability: maps" + where));
             part.report(0.7, "Stability: region figures" + where);
+            int negativeMeans = org.noisewise.estimate.SignedValues.negatives(maps.signal());
+            if (org.noisewise.estimate.SignedValues.signed(negativeMeans, maps.signal().length)) {
+                throw new InputException(String.format(Locale.ROOT, "the temporal mean is below zero in %.1f%% of the "
+                        + "pixels%s: this is not a magnitude series (a phase-sensitive or real-part reconstruction, or a "
+                        + "difference), and the stability figures are defined on magnitude images; measure the magnitude "
+                        + "series", 100.0 * negativeMeans / maps.signal().length, where));
+            }
             Stability.Placement place = placement(maps, signal, o.roiSize(), w, h, notes, zCount > 1 ? z : 0);
             StabilityResult r = Stability.summarize(maps, f::gather, place, tr);
             results.add(r);
@@ -141,7 +154,7 @@ public final class StabilityMeasure {
                 images.add(ResultImages.stabilityStack(title + " stability maps" + suffix, maps, imp, unit));
             }
             plots.add(StabilityPlots.series("Stability series - " + title + suffix, r, unit));
-            plots.add(StabilityPlots.spectrum("Stability spectrum - " + title + suffix, r));
+            plots.add(StabilityPlots.spectrum("Stability spectrum - " + title + suffix, r, unit));
             plots.add(StabilityPlots.weisskoff("Weisskoff curve - " + title + suffix, r));
         }
         Acquisition.addEfficiency(rows, imp, notes);
@@ -185,6 +198,23 @@ public final class StabilityMeasure {
         }
         progress.report(1.0, "");
         return new Outcome(new Measurement(rows, images, plots, notes), results, places, entries);
+    }
+
+    /** Refuses a frame holding NaN or infinite values (8- and 16-bit frames cannot), naming it. */
+    static void requireFinite(SeriesFrames f, int width, int z) throws InputException {
+        Object[] frames = f.frames();
+        for (int t = 0; t < frames.length; t++) {
+            if (frames[t] instanceof float[] p) {
+                for (int i = 0; i < p.length; i++) {
+                    if (!Float.isFinite(p[i])) {
+                        throw new InputException(String.format(Locale.ROOT, "frame %d%s holds a %s value at x=%d, y=%d: "
+                                + "a damaged frame; export the series again (or skip past it when it is among the "
+                                + "first frames)", t + 1, z > 0 ? " of z slice " + z : "", Float.isNaN(p[i]) ? "NaN"
+                                : "infinite", i % width, i / width));
+                    }
+                }
+            }
+        }
     }
 
     /** The frame interval in seconds: the image's frame interval, else DICOM 0018,0080; NaN (with a note) when unknown. */
@@ -299,13 +329,20 @@ public final class StabilityMeasure {
             StabilityMaps m = maps.get(i);
             List<PlacedRegion> drawn = new ArrayList<>();
             drawn.add(new PlacedRegion("signal", PlacedRegion.Kind.RECTANGLE, p.x0(), p.y0(), p.side(), p.side(), null));
-            html.image("Signal (temporal mean) map with the square used (yellow)", QaImages.png(
-                    QaImages.sliceWithRegions("signal map", m.signal(), m.width(), m.height(), drawn)));
+            html.image("Signal (temporal mean) map with the square used (yellow); grey levels from the 1st to the "
+                    + "99th percentile of the phantom", QaImages.png(QaImages.sliceWithRegions("signal map", m.signal(),
+                    m.width(), m.height(), drawn, QaImages.objectRange(m.signal()))));
+            html.image("SFNR map (signal over the fluctuation noise of each voxel); grey levels from the 1st to the "
+                    + "99th percentile of the phantom", QaImages.png(QaImages.sliceWithRegions("SFNR map", m.sfnr(),
+                    m.width(), m.height(), drawn, QaImages.objectRange(m.sfnr()))));
+            html.image("Static spatial noise map (sum of odd minus sum of even frames); grey levels from the 1st to "
+                    + "the 99th percentile", QaImages.png(QaImages.sliceWithRegions("static noise map", m.staticNoise(),
+                    m.width(), m.height(), drawn, QaImages.percentileRange(m.staticNoise()))));
             html.heading("Results");
             html.resultTable(rows.get(i), "results" + i);
             html.image("Region-mean series and its second-order fit", QaImages.png(
                     StabilityPlots.series("series", r, unit).getImagePlus()));
-            html.image("Spectrum of the residuals", QaImages.png(StabilityPlots.spectrum("spectrum", r).getImagePlus()));
+            html.image("Spectrum of the residuals", QaImages.png(StabilityPlots.spectrum("spectrum", r, unit).getImagePlus()));
             html.image("Weisskoff curve with the ideal 1/n line", QaImages.png(
                     StabilityPlots.weisskoff("weisskoff", r).getImagePlus()));
             if (!baselines.get(i).isEmpty() && o.log() != null) {

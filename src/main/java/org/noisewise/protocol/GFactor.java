@@ -163,7 +163,7 @@ public final class GFactor {
         if (precision > TARGET_PRECISION) {
             w.add(new Warning("few_repeats", String.format(Locale.ROOT, "the pixel map is noisy: with %d and %d "
                     + "repeats and a %dx%d window each pixel's g is uncertain by about %.0f%% (1 SD), so g_max is "
-                    + "biased upward; %d repeats of each acquisition (or a wider --window) give %.0f%%; the region "
+                    + "biased upward; %d repeats of each acquisition (or a wider map window) give %.0f%%; the region "
                     + "value g_mean pools every pixel and is not affected", repeatsFull, repeatsAccel, window, window,
                     100 * precision, needed, 100 * TARGET_PRECISION)));
         }

@@ -130,7 +130,8 @@ public record Protocol(double[] voxel, Double phase, Double partitions, Double a
         }
         double[] voxel = null;
         Map<String, Double> v = new LinkedHashMap<>();
-        for (String part : text.trim().split("[,;\\s]+")) {
+        // "key = value" with spaces around the sign is read as key=value
+        for (String part : text.trim().replaceAll("\\s*=\\s*", "=").split("[,;\\s]+")) {
             int eq = part.indexOf('=');
             if (eq <= 0 || eq == part.length() - 1) {
                 throw new InputException(what + ": '" + part + "' is not KEY=VALUE (e.g. bandwidth=130)");

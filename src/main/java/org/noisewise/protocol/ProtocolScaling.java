@@ -77,7 +77,7 @@ public final class ProtocolScaling {
         if (a == null || b == null) {
             throw new InputException(name(key) + " (" + key + ") is known for the " + (a == null ? "second" : "first")
                     + " protocol but not for the " + (a == null ? "first" : "second") + ": add " + key + "=... to the "
-                    + (a == null ? "first (--from)" : "second (--to)") + " protocol");
+                    + (a == null ? "first (A)" : "second (B)") + " protocol");
         }
         return b / a;
     }

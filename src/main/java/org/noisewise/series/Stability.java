@@ -14,6 +14,7 @@ import org.noisewise.estimate.Interval;
 import org.noisewise.estimate.Levels;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.RepeatedAcquisitions;
+import org.noisewise.estimate.SignedValues;
 import org.noisewise.estimate.Warning;
 
 /**
@@ -36,6 +37,11 @@ public final class Stability {
     public static final int MIN_FRAMES = 10;
     /** Below this many frames used the figures are imprecise (a warning). */
     public static final int FEW_FRAMES = 50;
+    /**
+     * An SFNR below this says the region holds little more than noise (pure magnitude noise gives its
+     * mean over its SD, 1.91 for one channel; common practice to warn at about twice that).
+     */
+    public static final double IN_AIR_SFNR = 4.0;
 
     static final int TILE = 4096;
     private static final ThreadLocal<double[][]> SCRATCH = ThreadLocal.withInitial(() -> new double[6][TILE]);
@@ -375,6 +381,7 @@ public final class Stability {
         }
         double[] got = new double[wanted.length];
         double[] prefix = new double[(side + 1) * (side + 1)];
+        long negatives = 0;
         for (int t = 0; t < n; t++) {
             frames.gather(skip + t, wanted, got);
             double s = 0;
@@ -384,6 +391,7 @@ public final class Stability {
             for (int j = 0; j < m; j++) {
                 int i = idx[j];
                 double x = got[at + j];
+                negatives += x < 0 ? 1 : 0;
                 s += x;
                 double r = x - (mean[i] + a1[i] * b1 + a2[i] * b2);
                 zz += r * r;
@@ -427,6 +435,12 @@ public final class Stability {
             staticVar += d * d;
         }
         List<Warning> warnings = new ArrayList<>();
+        if (SignedValues.signed((int) Math.min(Integer.MAX_VALUE, negatives), (long) n * m)) {
+            throw new InputException(String.format(Locale.ROOT, "%.1f%% of the values in region '%s' are below zero: "
+                    + "this is not a magnitude series (a phase-sensitive or real-part reconstruction, or a difference), "
+                    + "and the stability figures are defined on magnitude images; measure the magnitude series",
+                    100.0 * negatives / ((double) n * m), region.name()));
+        }
         int nu = n - 3;
         double bias = RepeatedAcquisitions.snrMapBias(nu + 1);
         double sfnrMapMean = sfnrCount > 0 ? sfnrSum / sfnrCount : Double.NaN;
@@ -439,6 +453,11 @@ public final class Stability {
         // residuals are a common part c(t) (variance s^2) plus independent parts (variance sigma^2), which
         // the region-mean series separates: its residual variance is s^2 + sigma^2 / m
         double vbar = zSum / nu;
+        if (!(vbar > 0)) {
+            warnings.add(new Warning("no_temporal_noise", "the values in region '" + region.name() + "' follow their "
+                    + "fitted trend exactly (no temporal noise): the SFNR and the noise figures are undefined; the frames "
+                    + "are copies of one image, or the region is saturated or masked: check the series"));
+        }
         double vm = Math.pow(trend.residualSd(regionSeries), 2);
         double sig2 = m > 1 ? Math.max(0.0, (vbar - vm) * m / (m - 1.0)) : vbar;
         double s2 = Math.max(0.0, vm - sig2 / m);
@@ -503,6 +522,10 @@ public final class Stability {
         if (!(seriesMean > 0)) {
             warnings.add(new Warning("no_signal", "the region's mean is not positive: the percent figures are "
                     + "meaningless; place the region on the phantom"));
+        } else if (sfnrMapMean < IN_AIR_SFNR) {
+            warnings.add(new Warning("region_in_air", String.format(Locale.ROOT, "the region's SFNR is %.2g, little "
+                    + "more than pure noise gives (about 1.9 for a region in air, the mean over the SD of Rayleigh "
+                    + "noise): the region lies in air or on very weak signal; place it on the phantom", sfnrMapMean)));
         }
         double[] residuals = new double[n];
         for (int t = 0; t < n; t++) {

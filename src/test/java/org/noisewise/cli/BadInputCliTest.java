@@ -65,7 +65,7 @@ class BadInputCliTest {
         assertTrue(inputError("qa", "sample-images/aster_disk_1ch.tif", "--repeats").contains("single frame"));
         Path empty = Files.createDirectory(dir.resolve("empty"));
         assertTrue(inputError("batch", empty.toString(), "--method", "background", "--signal", "1,1,5,5",
-                "--background", "1,1,4,4").contains("no files to measure"));
+                "--background", "1,1,4,4").contains("no images to measure"));
     }
 
     @Test
@@ -73,13 +73,14 @@ class BadInputCliTest {
         assertTrue(inputError("qa", A, B, "--limits", "--field", "-3").contains("positive"));
         assertTrue(inputError("qa", A, B, "--trends", dir.toString()).contains("--log"));
         Path log = dir.resolve("m.csv");
-        assertTrue(inputError("qa", A, B, "--log", log.toString(), "--trends", dir.resolve("nowhere").toString())
+        // a trends folder is created when its parent exists (issue 20.10); a missing parent is named
+        assertTrue(inputError("qa", A, B, "--log", log.toString(), "--trends", dir.resolve("no/such").toString())
                 .contains("does not exist"));
         Path notAFolder = dir.resolve("plain.txt");
         Files.writeString(notAFolder, "x");
         String out = inputError("batch", dir.toString(), "--method", "background", "--signal", "1,1,5,5", "--background",
                 "1,1,4,4", "--out", notAFolder.resolve("r.csv").toString());
-        assertTrue(out.contains("does not exist"), out);
+        assertTrue(out.contains("is a file, not a folder"), out);
         ImagePlus noise = new ImagePlus("noise", TestImages.phantom("n", 0, 5, 1, 9).getProcessor());
         Path n = TestImages.saveTiff(noise, dir, "noise.tif");
         assertTrue(inputError("qa", n.toString()).contains("no phantom found"));

@@ -137,6 +137,8 @@ class ReviewFindingsTest {
         String[] r = run("repeat", f.toString(), "--signal", "4,4,20,20", "--rician", "--json");
         assertEquals("0", r[0], r[2]);
         JsonObject o = JsonParser.parseString(r[1]).getAsJsonObject();
-        assertEquals(0.0, o.get("snr").getAsDouble(), 0.0);
+        // signed data (issue 20.2): the Gaussian model, SNR = mean / SD = -50 / 3, never a magnitude correction
+        assertEquals(-50.0 / 3.0, o.get("snr").getAsDouble(), 1.0);
+        assertTrue(r[1].contains("signed_data"), r[1]);
     }
 }

@@ -186,6 +186,12 @@ public final class Screenshots {
         w.toFront();
         settle();
         Rectangle r = w.getBounds();
+        if (w instanceof ij.gui.ImageWindow iw && !(w instanceof ij.gui.PlotWindow) && iw.getCanvas() != null) {
+            // the image itself: without a window manager, ImageJ draws the window's title over its info line
+            java.awt.Point p = iw.getCanvas().getLocationOnScreen();
+            java.awt.Dimension d = iw.getCanvas().getSize();
+            r = new Rectangle(p.x, p.y, d.width, d.height);
+        }
         BufferedImage img = robot.createScreenCapture(r);
         ImageIO.write(img, "png", new File(out.resolve(name).toString()));
         System.out.println("wrote " + out.resolve(name) + " (" + r.width + "x" + r.height + ")");

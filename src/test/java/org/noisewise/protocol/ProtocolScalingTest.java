@@ -74,10 +74,10 @@ class ProtocolScalingTest {
                 p("voxel=1x1x5,phase=256,averages=1,bandwidth=130,field=3"),
                 p("voxel=1x1x3,phase=256,averages=2,bandwidth=260"), 1.0));
         assertTrue(e.getMessage().contains("field strength") && e.getMessage().contains("field=")
-                && e.getMessage().contains("--to"), e.getMessage());
+                && e.getMessage().contains("second (B)"), e.getMessage());
         e = assertThrows(InputException.class, () -> ProtocolScaling.predict(p("phase=256,averages=1,bandwidth=130"),
                 p("voxel=1x1x3,phase=256,averages=2,bandwidth=260"), 1.0));
-        assertTrue(e.getMessage().contains("voxel") && e.getMessage().contains("--from"), e.getMessage());
+        assertTrue(e.getMessage().contains("voxel") && e.getMessage().contains("first (A)"), e.getMessage());
         ProtocolScaling.Prediction pr = ProtocolScaling.predict(p("voxel=1x1x5,phase=256,averages=1,bandwidth=130"),
                 p("voxel=1x1x3,phase=256,averages=2,bandwidth=260"), 1.0);
         assertEquals(1, pr.notes().size());

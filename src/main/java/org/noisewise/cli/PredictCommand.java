@@ -50,7 +50,11 @@ public class PredictCommand implements Callable<Integer> {
         Protocol b = ProtocolArgument.resolve(to, "--to");
         ProtocolScaling.Prediction p = ProtocolScaling.predict(a, b, fieldExponent);
         ResultRow row = ProtocolRows.prediction(a, b, p, snr);
-        Output.notes(spec.commandLine().getErr(), "predict", p.notes());
+        List<String> notes = new java.util.ArrayList<>();
+        a.notes().forEach(n -> notes.add("from: " + n));
+        b.notes().forEach(n -> notes.add("to: " + n));
+        notes.addAll(p.notes());
+        Output.notes(spec.commandLine().getErr(), "predict", notes);
         Output.print(spec.commandLine().getOut(), List.of(row), json);
         return 0;
     }

@@ -21,7 +21,12 @@ public final class ProtocolHeaders {
      * Pixel spacing 0028,0030, slice thickness 0018,0050 (else spacing between slices 0018,0088), acquisition
      * matrix 0018,1310 (the acquired voxel when the image was interpolated), phase-encoding steps 0018,0089,
      * averages 0018,0083, pixel bandwidth 0018,0095, field strength 0018,0087, MR acquisition type 0018,0023
-     * (3-D: the slices of the image are the partitions), parallel reduction factors 0018,9069 and 0018,9155.
+     * and parallel reduction factors 0018,9069 and 0018,9155; every value read is named in the notes.
+     *
+     * <p>Partitions of a 3-D acquisition (every slice of a slab carries the whole slab's sampling time): the
+     * out-of-plane phase-encoding steps when stated (0018,9232), else the slices of the volume (the z slices
+     * of a series read with its layout, else the slices of a stack without time frames); one slice given
+     * alone leaves them unknown (with a note), never 1.
      */
     public static Protocol of(ImagePlus imp) {
         List<String> notes = new ArrayList<>();
@@ -30,12 +35,29 @@ public final class ProtocolHeaders {
         Double averages = ImageMetadata.number(imp, "0018,0083");
         Double bandwidth = ImageMetadata.number(imp, "0018,0095");
         Double field = ImageMetadata.number(imp, "0018,0087");
+        named(notes, "phase-encoding steps", phase, "0018,0089");
+        named(notes, "averages", averages, "0018,0083");
+        named(notes, "pixel bandwidth (Hz/pixel)", bandwidth, "0018,0095");
+        named(notes, "field strength (T)", field, "0018,0087");
         Double partitions = null;
         String type = ImageMetadata.tag(imp, "0018,0023");
         if (type != null && type.trim().equalsIgnoreCase("3D")) {
-            partitions = (double) StackPlanes.zCount(imp);
-            notes.add(String.format(Locale.ROOT, "3-D acquisition (0018,0023): its %d slices taken as the partitions",
-                    StackPlanes.zCount(imp)));
+            Double outOfPlane = positive(ImageMetadata.number(imp, "0018,9232"));
+            int slices = Arrangement.known(imp) || StackPlanes.hasTimeAxis(imp) ? imp.getNSlices()
+                    : imp.getStackSize();
+            if (outOfPlane != null) {
+                partitions = outOfPlane;
+                notes.add(String.format(Locale.ROOT, "3-D acquisition (0018,0023): %s partitions from the out-of-plane "
+                        + "phase-encoding steps (0018,9232)", number(outOfPlane)));
+            } else if (slices > 1) {
+                partitions = (double) slices;
+                notes.add(String.format(Locale.ROOT, "3-D acquisition (0018,0023): its %d slices taken as the "
+                        + "partitions (every slice of a slab carries the whole slab's sampling time)", slices));
+            } else {
+                notes.add("3-D acquisition (0018,0023), but one slice is given and the header states no out-of-plane "
+                        + "phase-encoding steps (0018,9232): the number of partitions is unknown; give it "
+                        + "(partitions=N) or open the whole volume");
+            }
         }
         Double inPlane = ImageMetadata.number(imp, "0018,9069");
         Double outPlane = ImageMetadata.number(imp, "0018,9155");
@@ -45,8 +67,19 @@ public final class ProtocolHeaders {
             notes.add(String.format(Locale.ROOT, "acceleration R = %s from the parallel reduction factors "
                     + "(0018,9069 / 0018,9155)", r));
         }
+        boolean slab = type != null && type.trim().equalsIgnoreCase("3D");
         return new Protocol(voxel, positive(phase), partitions, positive(averages), positive(bandwidth),
-                positive(field), r == null || r < 1 ? null : r, null, notes);
+                positive(field), r == null || r < 1 ? null : r, null, notes, slab);
+    }
+
+    private static void named(List<String> notes, String what, Double v, String tag) {
+        if (positive(v) != null) {
+            notes.add(what + " " + number(v) + " from the header (" + tag + ")");
+        }
+    }
+
+    private static String number(double v) {
+        return v == Math.rint(v) && Math.abs(v) < 1e9 ? Long.toString((long) v) : String.format(Locale.ROOT, "%.4g", v);
     }
 
     private static Double positive(Double d) {
@@ -75,6 +108,9 @@ public final class ProtocolHeaders {
         if (!(dx > 0) || !(dy > 0)) {
             return null;
         }
+        notes.add(String.format(Locale.ROOT, "pixel spacing %s x %s mm (0028,0030) and slice thickness %s mm (%s) from "
+                + "the header", number(dy), number(dx), number(thickness), ImageMetadata.number(imp, "0018,0050") != null
+                ? "0018,0050" : "0018,0088"));
         int[] m = matrix(ImageMetadata.tag(imp, "0018,1310"));
         if (m != null) {
             int freq = m[0] > 0 ? m[0] : m[1];

@@ -76,7 +76,7 @@ public final class GFactorMeasure {
             RepeatedAcquisitions.Maps mf = RepeatedMaps.compute(full, z);
             RepeatedAcquisitions.Maps ma = RepeatedMaps.compute(accel, z);
             float[] g = GFactor.map(mf.mean(), mf.sd(), ma.mean(), ma.sd(), full.getWidth(), full.getHeight(),
-                    acceleration, w);
+                    acceleration, w, kf, ka);
             if (maps) {
                 ImagePlus imp = ResultImages.floatImage(titleAccel + " g-factor" + (zCount > 1 ? " z" + z : ""),
                         full.getWidth(), full.getHeight(), g, full, "g");

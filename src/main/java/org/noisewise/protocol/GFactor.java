@@ -9,6 +9,7 @@ import org.noisewise.estimate.Interval;
 import org.noisewise.estimate.Levels;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.Warning;
+import org.apache.commons.math3.special.Gamma;
 
 /**
  * The g-factor of parallel imaging, {@code g = SNR_full / (SNR_accelerated sqrt(R))} (Pruessmann et al.
@@ -17,10 +18,16 @@ import org.noisewise.estimate.Warning;
  *
  * <p>The pixel map divides the two SNR maps; with K repeats a pixel's SD has {@code K - 1} degrees of
  * freedom, so the map is smoothed when asked: the variance maps are averaged over a {@code w x w} window
- * (edges clamped), worth {@code (K - 1) w^2} degrees of freedom for uncorrelated noise. The relative SD of
- * a pixel value is then about {@code sqrt(1/(2 nu_full) + 1/(2 nu_accel))} (closed form for a ratio of two
- * independent sample SDs, first order). Pixels of the full acquisition below {@link #MIN_SNR} (air) are
- * left out (NaN).
+ * (edges clamped), worth {@code nu = (K - 1) w^2} degrees of freedom for uncorrelated noise. A pixel's
+ * value holds the ratio of two sample SDs, {@code s_a / s_f}, whose square is {@code (sigma_a/sigma_f)^2}
+ * times an F(nu_a, nu_f) variable: it is biased up by {@code E[s_a/s_f] / (sigma_a/sigma_f) =
+ * c4(nu_a) e(nu_f)}, with {@code c4(nu) = sqrt(2/nu) Gamma((nu+1)/2) / Gamma(nu/2)} and
+ * {@code e(nu) = E[sigma/s] = sqrt(nu/2) Gamma((nu-1)/2) / Gamma(nu/2)} (closed forms; about 6% at
+ * K = 10), so the map is divided by that factor; its relative SD is then
+ * {@code sqrt(E[F] / E[sqrt F]^2 - 1)} with {@code E[F] = nu_f / (nu_f - 2)} (exact for the SD ratio; the
+ * means' own noise, small at the SNRs a map needs, is left out). Pixels of the full acquisition below
+ * {@link #MIN_SNR} (air) are left out (NaN). The region value {@code g} divides the region's pooled SNRs,
+ * whose noise is the root mean square over the region: it is the RMS of g over the region's pixels.
  */
 public final class GFactor {
 
@@ -47,10 +54,12 @@ public final class GFactor {
 
     /**
      * The pixel map {@code (mean_f / sd_f) / ((mean_a / sd_a) sqrt(R))}, variances averaged over a
-     * {@code window x window} square; NaN where either SD is 0 or a mean is not positive.
+     * {@code window x window} square, divided by the small-sample bias of the SD ratio ({@link #ratioBias});
+     * NaN where either SD is 0 or a mean is not positive.
      */
     public static float[] map(float[] meanFull, float[] sdFull, float[] meanAccel, float[] sdAccel, int width,
-                              int height, double acceleration, int window) throws InputException {
+                              int height, double acceleration, int window, int repeatsFull, int repeatsAccel)
+            throws InputException {
         int n = width * height;
         if (meanFull.length != n || sdFull.length != n || meanAccel.length != n || sdAccel.length != n) {
             throw new InputException("the two acquisitions differ in size: the g-factor compares the same slices at "
@@ -63,7 +72,9 @@ public final class GFactor {
         float[] vf = boxMeanOfSquares(sdFull, width, height, window);
         float[] va = boxMeanOfSquares(sdAccel, width, height, window);
         float[] g = new float[n];
-        double root = Math.sqrt(acceleration);
+        double bias = ratioBias(degrees(repeatsAccel, window), degrees(repeatsFull, window));
+        // one degree of freedom (a pair, no window): the ratio has no finite mean to correct; the precision warns
+        double root = Math.sqrt(acceleration) * (Double.isFinite(bias) ? bias : 1.0);
         for (int i = 0; i < n; i++) {
             double snrF = meanFull[i] / Math.sqrt(vf[i]);
             double snrA = meanAccel[i] / Math.sqrt(va[i]);
@@ -115,17 +126,48 @@ public final class GFactor {
         return out;
     }
 
-    /** Relative SD of one pixel of the map: {@code sqrt(1/(2 nu_f) + 1/(2 nu_a))}, {@code nu = (K - 1) w^2}. */
+    /** Degrees of freedom of a pixel's variance: {@code (K - 1) w^2}. */
+    static double degrees(int repeats, int window) {
+        return (repeats - 1.0) * window * window;
+    }
+
+    /** {@code c4(nu) = E[s] / sigma} for a sample SD with {@code nu} degrees of freedom (closed form). */
+    static double c4(double nu) {
+        return Math.sqrt(2 / nu) * Math.exp(Gamma.logGamma((nu + 1) / 2) - Gamma.logGamma(nu / 2));
+    }
+
+    /** {@code E[sigma / s]} for {@code nu > 1} degrees of freedom (closed form); infinite at or below 1. */
+    static double inverseSd(double nu) {
+        return nu > 1 ? Math.sqrt(nu / 2) * Math.exp(Gamma.logGamma((nu - 1) / 2) - Gamma.logGamma(nu / 2))
+                : Double.POSITIVE_INFINITY;
+    }
+
+    /** The bias of {@code s_a / s_f}: {@code c4(nu_a) E[sigma_f / s_f]}. */
+    public static double ratioBias(double nuAccel, double nuFull) {
+        return c4(nuAccel) * inverseSd(nuFull);
+    }
+
+    /**
+     * Relative SD of one bias-corrected pixel of the map: the SD ratio's {@code sqrt(E[F] / E[sqrt F]^2 - 1)},
+     * {@code E[F] = nu_f / (nu_f - 2)}; infinite when {@code nu_f <= 2}.
+     */
     public static double pixelPrecision(int repeatsFull, int repeatsAccel, int window) {
-        double nf = (repeatsFull - 1.0) * window * window;
-        double na = (repeatsAccel - 1.0) * window * window;
-        return Math.sqrt(1 / (2 * nf) + 1 / (2 * na));
+        double nf = degrees(repeatsFull, window);
+        double na = degrees(repeatsAccel, window);
+        if (nf <= 2) {
+            return Double.POSITIVE_INFINITY;
+        }
+        double b = ratioBias(na, nf);
+        return Math.sqrt(nf / (nf - 2) / (b * b) - 1);
     }
 
     /** Repeats of each acquisition that give the pixel map {@link #TARGET_PRECISION} at this window. */
     public static int repeatsNeeded(int window) {
-        // sqrt(2 / (2 (K - 1) w^2)) <= p  <=>  K >= 1 + 1 / (p^2 w^2)
-        return 1 + (int) Math.ceil(1.0 / (TARGET_PRECISION * TARGET_PRECISION * window * window) - 1e-9);
+        int k = 2;
+        while (k < 1_000_000 && pixelPrecision(k, k, window) > TARGET_PRECISION) {
+            k = k < 1000 ? k + 1 : (int) (k * 1.05);
+        }
+        return k;
     }
 
     /**

@@ -25,9 +25,10 @@ import org.noisewise.estimate.InputException;
  * @param acceleration parallel-imaging acceleration R
  * @param g            g-factor
  * @param notes        where each value came from, when not stated by the user
+ * @param slab         a 3-D acquisition: its partitions must be known for the sampling time (never taken as 1)
  */
 public record Protocol(double[] voxel, Double phase, Double partitions, Double averages, Double bandwidth,
-                       Double field, Double acceleration, Double g, List<String> notes) {
+                       Double field, Double acceleration, Double g, List<String> notes, boolean slab) {
 
     /** The keys, in the order they are written. */
     public static final List<String> KEYS = List.of("voxel", "phase", "partitions", "averages", "bandwidth", "field",
@@ -36,6 +37,12 @@ public record Protocol(double[] voxel, Double phase, Double partitions, Double a
     public Protocol {
         voxel = voxel == null ? null : voxel.clone();
         notes = List.copyOf(notes);
+    }
+
+    /** A protocol that is not known to be a 3-D slab (unknown partitions count as 1). */
+    public Protocol(double[] voxel, Double phase, Double partitions, Double averages, Double bandwidth, Double field,
+                    Double acceleration, Double g, List<String> notes) {
+        this(voxel, phase, partitions, averages, bandwidth, field, acceleration, g, notes, false);
     }
 
     @Override
@@ -50,7 +57,7 @@ public record Protocol(double[] voxel, Double phase, Double partitions, Double a
 
     /** Sampling time of the full (unaccelerated) acquisition in s, or null when a part is unknown. */
     public Double fullSamplingTime() {
-        if (phase == null || averages == null || bandwidth == null) {
+        if (phase == null || averages == null || bandwidth == null || slab && partitions == null) {
             return null;
         }
         return phase * orOne(partitions) * averages / bandwidth;
@@ -76,6 +83,9 @@ public record Protocol(double[] voxel, Double phase, Double partitions, Double a
         }
         if (bandwidth == null) {
             m.add("bandwidth");
+        }
+        if (slab && partitions == null) {
+            m.add("partitions");
         }
         return m;
     }
@@ -105,7 +115,7 @@ public record Protocol(double[] voxel, Double phase, Double partitions, Double a
         n.addAll(over.notes);
         return new Protocol(over.voxel != null ? over.voxel : voxel, first(over.phase, phase),
                 first(over.partitions, partitions), first(over.averages, averages), first(over.bandwidth, bandwidth),
-                first(over.field, field), first(over.acceleration, acceleration), first(over.g, g), n);
+                first(over.field, field), first(over.acceleration, acceleration), first(over.g, g), n, slab || over.slab);
     }
 
     private static Double first(Double a, Double b) {

@@ -49,7 +49,18 @@ public final class ProtocolScaling {
         f.put("voxel_volume", ratio(from, to, "voxel", notes));
         double t = ratio(from, to, "phase", notes) * ratio(from, to, "averages", notes)
                 / ratio(from, to, "bandwidth", notes);
-        t *= ratioDefaultOne(from.partitions(), to.partitions());
+        // partitions: 1 for a 2-D acquisition; a 3-D slab's must be known (a slice carries the slab's sampling time)
+        Double pa = from.partitions() != null ? from.partitions() : from.slab() ? null : Double.valueOf(1.0);
+        Double pb = to.partitions() != null ? to.partitions() : to.slab() ? null : Double.valueOf(1.0);
+        if (pa == null && pb == null) {
+            notes.add("the number of partitions of neither 3-D acquisition is known: taken as equal (factor 1)");
+        } else if (pa == null || pb == null) {
+            throw new InputException("the " + (pa == null ? "first (A)" : "second (B)") + " protocol is a 3-D "
+                    + "acquisition whose number of partitions is not known (each slice carries the whole slab's "
+                    + "sampling time): add partitions=N to it, or give the whole volume");
+        } else {
+            t *= pb / pa;
+        }
         f.put("sampling_time", Math.sqrt(t));
         f.put("field", Math.pow(ratio(from, to, "field", notes), fieldExponent));
         double accFrom = Protocol.orOne(from.g()) * Math.sqrt(Protocol.orOne(from.acceleration()));
@@ -60,10 +71,6 @@ public final class ProtocolScaling {
             r *= v;
         }
         return new Prediction(r, f, fieldExponent, notes);
-    }
-
-    private static double ratioDefaultOne(Double from, Double to) {
-        return Protocol.orOne(to) / Protocol.orOne(from);
     }
 
     /** {@code to / from} of one key; 1 with a note when neither states it; an error when one does. */
@@ -89,6 +96,7 @@ public final class ProtocolScaling {
             case "averages" -> "the number of averages";
             case "bandwidth" -> "the bandwidth per pixel";
             case "field" -> "the field strength";
+            case "partitions" -> "the number of partitions";
             default -> key;
         };
     }

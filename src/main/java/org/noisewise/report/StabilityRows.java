@@ -38,6 +38,8 @@ public final class StabilityRows {
                 .add("snr_ci95[1]", "SNR 95% high", r.snrCi95().high())
                 .add("percent_fluctuation", "Percent fluctuation [%]", r.percentFluctuation())
                 .add("drift_percent", "Drift [%]", r.driftPercent())
+                .add("drift_ci95[0]", "Drift 95% low [%]", r.driftCi95().low())
+                .add("drift_ci95[1]", "Drift 95% high [%]", r.driftCi95().high())
                 .add("rdc", "Radius of decorrelation [pixels]", r.rdc())
                 .add("weisskoff_first", "F(1) [%]", f[0])
                 .add("weisskoff_last", "F(" + f.length + ") [%]", f[f.length - 1])

@@ -15,6 +15,7 @@ import org.noisewise.estimate.Levels;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.RepeatedAcquisitions;
 import org.noisewise.estimate.SignedValues;
+import org.noisewise.estimate.SpatialCorrelation;
 import org.noisewise.estimate.Warning;
 
 /**
@@ -42,6 +43,8 @@ public final class Stability {
      * mean over its SD, 1.91 for one channel; common practice to warn at about twice that).
      */
     public static final double IN_AIR_SFNR = 4.0;
+    /** Voxels of the region whose residuals are kept for the correlation in time. */
+    static final int SAMPLED = 1024;
 
     static final int TILE = 4096;
     private static final ThreadLocal<double[][]> SCRATCH = ThreadLocal.withInitial(() -> new double[6][TILE]);
@@ -382,22 +385,53 @@ public final class Stability {
         double[] got = new double[wanted.length];
         double[] prefix = new double[(side + 1) * (side + 1)];
         long negatives = 0;
+        // residuals kept for the noise structure: every frame of up to SAMPLED voxels (their correlation in
+        // time), and the whole region in up to 64 frames (its correlation in space)
+        int kept = Math.min(m, SAMPLED);
+        double[][] resid = new double[n][kept];
+        double[] common = new double[n];
+        SpatialCorrelation.Patch patch = SpatialCorrelation.Patch.of(region, w);
+        int[][] members = patch.members(w);
+        java.util.Map<Integer, Integer> boxOf = new java.util.HashMap<>();
+        for (int k = 0; k < members[0].length; k++) {
+            boxOf.put(members[0][k], members[1][k]);
+        }
+        int[] box = new int[m];
+        for (int j = 0; j < m; j++) {
+            box[j] = boxOf.get(idx[j]);
+        }
+        SpatialCorrelation.LagSums spatial = new SpatialCorrelation.LagSums(SpatialCorrelation.SQUARE_WINDOW);
+        int spatialStep = Math.max(1, n / 64);
+        double[] r = new double[m];
+        double[] patchValues = new double[patch.w() * patch.h()];
         for (int t = 0; t < n; t++) {
             frames.gather(skip + t, wanted, got);
             double s = 0;
             double zz = 0;
             double b1 = trend.p1(t);
             double b2 = trend.p2(t);
+            double rs = 0;
             for (int j = 0; j < m; j++) {
                 int i = idx[j];
                 double x = got[at + j];
                 negatives += x < 0 ? 1 : 0;
                 s += x;
-                double r = x - (mean[i] + a1[i] * b1 + a2[i] * b2);
-                zz += r * r;
+                r[j] = x - (mean[i] + a1[i] * b1 + a2[i] * b2);
+                rs += r[j];
+                zz += r[j] * r[j];
             }
             regionSeries[t] = s / m;
             z[t] = zz / m;
+            common[t] = rs / m;
+            for (int j = 0; j < kept; j++) {
+                resid[t][j] = r[j] - common[t];
+            }
+            if (t % spatialStep == 0 && m > 1) {
+                for (int j = 0; j < m; j++) {
+                    patchValues[box[j]] = r[j] - common[t];
+                }
+                spatial.add(patch, patchValues, 0.0);
+            }
             // nested k x k squares about the same centre from the square's summed-area table
             int s1 = side + 1;
             for (int y = 0; y < side; y++) {
@@ -442,16 +476,31 @@ public final class Stability {
                     100.0 * negatives / ((double) n * m), region.name()));
         }
         int nu = n - 3;
-        double bias = RepeatedAcquisitions.snrMapBias(nu + 1);
+        // the noise structure: correlation between the voxels' own parts (the common part removed) and in time
+        SpatialCorrelation.Result corr = m > 1 ? spatial.result(m) : SpatialCorrelation.Result.white(m);
+        double v1 = Math.min(corr.linear(), 0.5 * m);
+        double v2 = corr.squared();
+        double[] seriesResiduals = trend.residuals(regionSeries);
+        // the residuals' correlation in time; the variance of a variance is more sensitive to it than a mean is,
+        // so its model takes the larger margin for the correlation's own uncertainty
+        SeriesNoise.Ar1 arCommon = n > 8 ? SeriesNoise.Ar1.of(seriesResiduals, trend, 2.0) : SeriesNoise.Ar1.white(n);
+        SeriesNoise.Ar1 arTrend = n > 8 ? SeriesNoise.Ar1.of(seriesResiduals, trend, 1.5) : SeriesNoise.Ar1.white(n);
+        SeriesNoise.Ar1 arVoxel = n > 8 ? SeriesNoise.Ar1.ofLag1(voxelLag1(resid, n, kept), trend, 2.0)
+                : SeriesNoise.Ar1.white(n);
+        double tcc = arCommon.varianceFactor();
+        double tee = arVoxel.varianceFactor();
+        double pc = arCommon.phi() * arVoxel.phi();
+        double tce = (1 + pc) / (1 - pc);
         double sfnrMapMean = sfnrCount > 0 ? sfnrSum / sfnrCount : Double.NaN;
-        double sfnr = sfnrMapMean / bias;
         double zSum = 0;
         for (double v : z) {
             zSum += v;
         }
         // the pooled residual variance and its effective degrees of freedom (Satterthwaite): the region's
-        // residuals are a common part c(t) (variance s^2) plus independent parts (variance sigma^2), which
-        // the region-mean series separates: its residual variance is s^2 + sigma^2 / m
+        // residuals are a common part c(t) (variance s^2) plus the voxels' own parts (variance sigma^2,
+        // correlated between neighbours), which the region-mean series separates: its residual variance is
+        // s^2 + sigma^2 V1 / m. Var(v) = (2 / nu) (s^4 Tcc + 2 s^2 sigma^2 (V1 / m) Tce + sigma^4 (V2 / m) Tee),
+        // V1, V2 the spatial inflations for means and variances, T the temporal ones (SeriesNoise)
         double vbar = zSum / nu;
         if (!(vbar > 0)) {
             warnings.add(new Warning("no_temporal_noise", "the values in region '" + region.name() + "' follow their "
@@ -459,10 +508,17 @@ public final class Stability {
                     + "are copies of one image, or the region is saturated or masked: check the series"));
         }
         double vm = Math.pow(trend.residualSd(regionSeries), 2);
-        double sig2 = m > 1 ? Math.max(0.0, (vbar - vm) * m / (m - 1.0)) : vbar;
-        double s2 = Math.max(0.0, vm - sig2 / m);
-        double varV = 2.0 / nu * (s2 * s2 + 2 * s2 * sig2 / m + sig2 * sig2 / m);
+        double sig2 = m > 1 ? Math.max(0.0, (vbar - vm) / (1 - v1 / m)) : vbar;
+        double s2 = Math.max(0.0, vbar - sig2);
+        double varV = 2.0 / nu * (s2 * s2 * tcc + 2 * s2 * sig2 * (v1 / m) * tce + sig2 * sig2 * (v2 / m) * tee);
         double nuEff = varV > 0 ? 2 * vbar * vbar / varV : Double.NaN;
+        // E[sigma / s] for one voxel's residual SD, whose variance has nu (s^2 + sigma^2)^2 / (s^4 Tcc +
+        // 2 s^2 sigma^2 Tce + sigma^4 Tee) effective degrees of freedom (nu for white residuals)
+        double own = s2 * s2 * tcc + 2 * s2 * sig2 * tce + sig2 * sig2 * tee;
+        double nuVoxel = own > 0 ? nu * (s2 + sig2) * (s2 + sig2) / own : nu;
+        double bias = nuVoxel > 1 ? Math.sqrt(nuVoxel / 2) * Math.exp(org.apache.commons.math3.special.Gamma.logGamma(
+                (nuVoxel - 1) / 2) - org.apache.commons.math3.special.Gamma.logGamma(nuVoxel / 2)) : Double.NaN;
+        double sfnr = sfnrMapMean / bias;
         Interval sfnrCi = new Interval(Double.NaN, Double.NaN);
         if (Double.isFinite(sfnr) && Double.isFinite(nuEff) && nuEff > 0) {
             // true variance between nuEff vbar / chi2(0.975) and nuEff vbar / chi2(0.025); SFNR goes as its -1/2 power
@@ -471,20 +527,38 @@ public final class Stability {
             double vHigh = nuEff * vbar / qv[0];
             sfnrCi = new Interval(sfnr * Math.sqrt(vbar / vHigh), sfnr * Math.sqrt(vbar / vLow));
         }
+        if (corr.correlated() && Math.max(corr.neighbourX(), corr.neighbourY()) > 0.1) {
+            warnings.add(new Warning("correlated_noise", String.format(Locale.ROOT, "neighbouring voxels' noise "
+                    + "correlates (%.2f along x, %.2f along y in the temporal residuals): interpolation or k-space "
+                    + "filtering; the intervals use an effective voxel count of %.0f of %d", corr.neighbourX(),
+                    corr.neighbourY(), m / v2, m)));
+        }
+        if (tcc > 1.5 || tee > 1.5) {
+            warnings.add(new Warning("slow_fluctuation", String.format(Locale.ROOT, "the residuals correlate from frame "
+                    + "to frame (%s): slow physiological-like or thermal fluctuation; the SFNR interval counts %.0f "
+                    + "effective frames of %d", tcc > tee ? "the region mean" : "each voxel", nuEff / 2 * 2, n)));
+        }
 
         double snr = Double.NaN;
         Interval snrCi = new Interval(Double.NaN, Double.NaN);
         double staticSigma = Double.NaN;
         if (m >= 2) {
-            staticVar /= m - 1;
+            // the static map's spatial variance: unbiased for correlated voxels with the divisor m - V1, and worth
+            // (m - V1) / V2 degrees of freedom (the voxel noise's correlation, measured on the residuals, is the
+            // map's: it sums the same voxels' frames)
+            double v1s = v1;
+            double nuS = Math.max(1.0, (m - v1s) / v2);
+            staticVar /= m - v1s;
             staticSigma = Math.sqrt(staticVar / maps.staticFrames());
-            snr = signalMean / staticSigma;
-            double[] qs = chiQuantiles(m - 1.0);
-            double lo = Math.sqrt((m - 1) * staticVar / qs[1] / maps.staticFrames());
-            double hi = Math.sqrt((m - 1) * staticVar / qs[0] / maps.staticFrames());
+            // the headline is corrected for the bias of 1 / s (E[sigma / s] for nuS degrees of freedom)
+            snr = signalMean / staticSigma / Math.sqrt(nuS / 2) / Math.exp(org.apache.commons.math3.special.Gamma
+                    .logGamma((nuS - 1) / 2) - org.apache.commons.math3.special.Gamma.logGamma(nuS / 2));
+            double[] qs = chiQuantiles(nuS);
+            double lo = Math.sqrt(nuS * staticVar / qs[1] / maps.staticFrames());
+            double hi = Math.sqrt(nuS * staticVar / qs[0] / maps.staticFrames());
             double seLogSignal = sd(regionSeries) / Math.sqrt(n) / Math.abs(signalMean);
             if (staticSigma > 0) {
-                // the exact chi-square ends of the noise on the log scale, the (small) spread of the signal mean
+                // the chi-square ends of the noise on the log scale, the (small) spread of the signal mean
                 // added in quadrature to each end's distance
                 double down = Math.log(hi / staticSigma);
                 double up = Math.log(staticSigma / lo);
@@ -501,13 +575,17 @@ public final class Stability {
         double[] fit = trend.fitted(coef);
         double seriesMean = coef[0];
         double fluctuation = 100.0 * trend.residualSd(regionSeries) / seriesMean;
-        double fitMax = Double.NEGATIVE_INFINITY;
-        double fitMin = Double.POSITIVE_INFINITY;
-        for (double f : fit) {
-            fitMax = Math.max(fitMax, f);
-            fitMin = Math.min(fitMin, f);
+        double drift = SeriesNoise.drift(trend, coef[1], coef[2], seriesMean);
+        // the coefficients' standard errors from the region-mean series' own AR(1) structure (white: sigma^2 / |b|^2)
+        double gamma0 = arTrend.gamma0(Math.pow(trend.residualSd(regionSeries), 2));
+        Interval driftCi = SeriesNoise.driftInterval(trend, coef[1], coef[2], seriesMean,
+                Math.sqrt(gamma0 * arTrend.bRb1()) / trend.norm1(), Math.sqrt(gamma0 * arTrend.bRb2()) / trend.norm2(),
+                Double.doubleToLongBits(seriesMean) ^ (31L * n + m));
+        if (Double.isFinite(driftCi.low()) && driftCi.low() <= 0) {
+            warnings.add(new Warning("drift_within_noise", String.format(Locale.ROOT, "the drift's 95%% interval "
+                    + "(%.2g-%.2g%%) reaches 0: no drift can be told from the fluctuation of this series",
+                    driftCi.low(), driftCi.high())));
         }
-        double drift = 100.0 * (fitMax - fitMin) / seriesMean;
         double[] weisskoff = new double[side];
         for (int k = 0; k < side; k++) {
             double mk = trend.fit(squares[k])[0];
@@ -533,8 +611,24 @@ public final class Stability {
         }
         double[][] spectrum = spectrum(residuals, repetitionSeconds);
         return new StabilityResult(n, skip, side, m, signalMean, sfnr, sfnrCi, sfnrMapMean, snr, snrCi, staticSigma,
-                fluctuation, drift, weisskoff, rdc, regionSeries, fit, spectrum[0], spectrum[1], repetitionSeconds,
+                fluctuation, drift, driftCi, weisskoff, rdc, regionSeries, fit, spectrum[0], spectrum[1], repetitionSeconds,
                 warnings);
+    }
+
+    /** The voxels' own residuals' lag-1 correlation, pooled over the voxels kept. */
+    private static double voxelLag1(double[][] resid, int n, int kept) {
+        double num = 0;
+        double den = 0;
+        for (int t = 0; t < n; t++) {
+            double[] a = resid[t];
+            for (int j = 0; j < kept; j++) {
+                den += a[j] * a[j];
+                if (t + 1 < n) {
+                    num += a[j] * resid[t + 1][j];
+                }
+            }
+        }
+        return den > 0 ? num / den : 0.0;
     }
 
     private static final java.util.concurrent.ConcurrentHashMap<Long, double[]> QUANTILES =

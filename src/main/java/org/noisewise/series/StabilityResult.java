@@ -20,6 +20,7 @@ import org.noisewise.estimate.Warning;
  * @param staticSigma      the per-frame noise SD the static map implies, {@code sqrt(V / N_s)}
  * @param percentFluctuation 100 x residual SD / mean of the region-mean series
  * @param driftPercent     100 x (max - min of the fitted trend) / mean
+ * @param driftCi95        its 95% interval (reaching 0 when no drift can be told from the fluctuation)
  * @param weisskoff        F(k) in percent for k = 1 .. roiSize
  * @param rdc              radius of decorrelation F(1) / F(roiSize)
  * @param series           the region-mean series (frames used)
@@ -30,7 +31,8 @@ import org.noisewise.estimate.Warning;
  */
 public record StabilityResult(int framesUsed, int skipped, int roiSize, int pixels, double signalMean, double sfnr,
                               Interval sfnrCi95, double sfnrMapMean, double snr, Interval snrCi95, double staticSigma,
-                              double percentFluctuation, double driftPercent, double[] weisskoff, double rdc,
+                              double percentFluctuation, double driftPercent, Interval driftCi95, double[] weisskoff,
+                              double rdc,
                               double[] series, double[] fit, double[] frequency, double[] power,
                               double repetitionSeconds, List<Warning> warnings) {
 

@@ -150,9 +150,15 @@ class ProtocolCommandsCliTest {
         d = org.noisewise.testing.DicomEdit.set(d, 0x0028, 0x0030, "DS", "1\\1");
         Path dcm = dir.resolve("protocol.dcm");
         Files.write(dcm, d);
-        CliRunner.Result r = CliRunner.run("predict", "--from", dcm.toString(), "--to",
-                "voxel=1x1x5,phase=64,averages=4,bandwidth=130,field=1.5", "--json");
+        // MR_small's header states a 3-D acquisition (0018,0023): one slice does not give its partitions (issue 23.4)
+        CliRunner.Result unknown = CliRunner.run("predict", "--from", dcm.toString(), "--to",
+                "voxel=1x1x5,phase=64,averages=4,bandwidth=130,field=1.5");
+        assertEquals(3, unknown.status());
+        assertTrue(unknown.err().contains("partitions"), unknown.err());
+        CliRunner.Result r = CliRunner.run("predict", "--from", dcm + ",partitions=16", "--to",
+                "voxel=1x1x5,phase=64,partitions=16,averages=4,bandwidth=130,field=1.5", "--json");
         assertEquals(0, r.status(), r.err());
+        assertTrue(r.err().contains("from: phase-encoding steps 64 from the header (0018,0089)"), r.err());
         // 4 averages against 1, all else equal: sqrt(4) = 2 [closed form]
         assertEquals(2.0, JsonParser.parseString(r.out()).getAsJsonObject().get("ratio").getAsDouble(), 1e-12);
         CliRunner.Result none = CliRunner.run("predict", "--from", TestImages.saveTiff(

@@ -201,7 +201,7 @@ class FijiFaceTest {
                 + "slices=[Current slice] map");
         ResultsTable g = ResultsTable.getResultsTable(GFactorMapCommand.tableTitle(full));
         assertNotNull(g, String.valueOf(IJ.getLog()));
-        assertEquals(1.3, g.getValue("g (region, pooled)", 0), 0.04);
+        assertEquals(1.3, g.getValue("g (region, RMS over its pixels)", 0), 0.04);
         assertEquals(images + 1, WindowManager.getImageCount(), "the g map was not shown");
         ImagePlus map = WindowManager.getImage("accelerated g-factor");
         assertNotNull(map);

@@ -65,14 +65,53 @@ class ProtocolHeadersTest {
         assertTrue(p.notes().stream().anyMatch(n -> n.contains("acquisition matrix")), p.notes().toString());
     }
 
+    /**
+     * Issue 23.4: every slice of a 3-D slab carries the whole slab's sampling time. One slice given
+     * alone leaves the partitions unknown (never 1); a 40-file 3-D DICOM folder, or a 40-slice volume
+     * without time frames, has 40; the out-of-plane phase steps (0018,9232) win when stated.
+     */
     @Test
-    void threeDAndAcceleration() throws Exception {
+    void threeDPartitionsAndAcceleration() throws Exception {
         Path f = dir.resolve("accel.dcm");
         Files.write(f, withProtocol("3D", 2));
         Protocol p = ProtocolHeaders.of(ImageFiles.open(f));
-        assertEquals(1.0, p.partitions(), "a single slice of a 3-D acquisition: 1 partition in the image");
+        assertNull(p.partitions(), "one slice of a 3-D acquisition: partitions unknown");
+        assertTrue(p.notes().stream().anyMatch(n -> n.contains("partitions is unknown")), p.notes().toString());
         assertEquals(2.0, p.acceleration());
-        assertEquals(48 * 2 / 130.0 / 2, p.samplingTime(), 1e-12);
+        assertTrue(p.missingForEfficiency().stream().anyMatch(m -> m.contains("partitions")), p.missingForEfficiency()
+                .toString());
+        // a 40-file 3-D folder, as a scanner exports it
+        DicomSeriesWriter.Spec spec = new DicomSeriesWriter.Spec("slab", 16, 16, 40, 1).geometry(1, 1, 1);
+        for (int z = 0; z < 40; z++) {
+            spec.image(z, 0, new short[256], 1, 0);
+        }
+        spec.common().text(0x00180023, "CS", "3D").integer(0x00180089, 256).decimals(0x00180083, 1)
+                .decimals(0x00180095, 200).decimals(0x00180087, 3);
+        Path folder = java.nio.file.Files.createDirectories(dir.resolve("slab"));
+        for (DicomSeriesWriter.File file : DicomSeriesWriter.singleFrame(spec)) {
+            Files.write(folder.resolve(file.name()), file.bytes());
+        }
+        Protocol slab = ProtocolHeaders.of(ImageFiles.open(folder));
+        assertEquals(40.0, slab.partitions());
+        // closed form: T = phase x partitions x averages / bandwidth
+        assertEquals(256 * 40 / 200.0, slab.samplingTime(), 1e-12);
+        assertTrue(slab.notes().stream().anyMatch(n -> n.contains("40 slices taken as the partitions")));
+        assertTrue(slab.notes().stream().anyMatch(n -> n.contains("0018,0089")), "values read are named");
+        // one 40-slice volume without time frames (a plain stack with the header)
+        ImagePlus one = ImageFiles.open(folder.resolve("IM0001.dcm"));
+        ij.ImageStack st = new ij.ImageStack(16, 16);
+        for (int z = 0; z < 40; z++) {
+            st.addSlice(new ij.process.ShortProcessor(16, 16));
+        }
+        ImagePlus volume = new ImagePlus("volume", st);
+        volume.setProperty("Info", one.getProperty("Info"));
+        assertEquals(40.0, ProtocolHeaders.of(volume).partitions());
+        // out-of-plane phase steps stated: they win
+        byte[] d = withProtocol("3D", 0);
+        d = DicomEdit.setUs(d, 0x0018, 0x9232, 32);
+        Path g = dir.resolve("oop.dcm");
+        Files.write(g, d);
+        assertEquals(32.0, ProtocolHeaders.of(ImageFiles.open(g)).partitions());
     }
 
     @Test

@@ -99,6 +99,46 @@ class ReadmeClaimsTest {
         }
     }
 
+    /** The contrast-to-noise section's worked example: the command as printed, its lines in the README. */
+    @Test
+    void contrastWorkedExample() throws Exception {
+        Run r = cli("repeat", "sample-images/bramble_two_gels_repeats.tif", "--signal", "54,30,20,20", "--contrast",
+                "56,72,16,16", "--channels", "8");
+        assertEquals(0, r.status(), r.err());
+        String readme = readme();
+        assertTrue(readme.contains("java -jar target/noisewise.jar repeat sample-images/bramble_two_gels_repeats.tif \\\n"
+                + "     --signal 54,30,20,20 --contrast 56,72,16,16 --channels 8"), "the README's command");
+        int lines = 0;
+        for (String line : r.out().lines().toList()) {
+            if (line.startsWith("CNR") || line.startsWith("Contrast")) {
+                assertTrue(readme.contains(line + "\n"), "README lacks the line: " + line);
+                lines++;
+            }
+        }
+        assertEquals(9, lines);
+    }
+
+    /**
+     * The CNR bias table: each plain CNR cell recomputed from the exact noncentral-chi means
+     * (signal at 10 sigma), e.g. 6.32 (-21.0%) for L = 8 and a contrast at 2 sigma.
+     */
+    @Test
+    void contrastBiasTable() throws Exception {
+        String readme = readme();
+        double[] contrast = {5, 2, 1, 0};
+        for (double c : contrast) {
+            StringBuilder row = new StringBuilder();
+            row.append(String.format(Locale.ROOT, "| %s | %.0f |", c == 0 ? "0 (noise only)" : String.format(Locale.ROOT,
+                    "%.0f sigma", c), 10 - c));
+            for (int l : new int[] {1, 4, 8}) {
+                double p = org.noisewise.math.ChiMoments.mean(l, 10) - org.noisewise.math.ChiMoments.mean(l, c);
+                row.append(String.format(Locale.ROOT, " %.2f (%.1f%%) |", p, 100 * (p / (10 - c) - 1))
+                        .replace("(-", "(\u2212"));
+            }
+            assertTrue(readme.contains(row.toString()), "README lacks the row: " + row);
+        }
+    }
+
     /** "On the bundled 24-repeat sample at a true SNR of 2, the raw mean is 14% high and the corrected one within 0.5%." */
     @Test
     void repeatsSampleStatement() throws Exception {

@@ -110,6 +110,9 @@ public class BatchCommand implements Callable<Integer> {
             throw new InputException("--skip and --roi-size belong to --method stability: leave them out for "
                     + method);
         }
+        if (method == Method.stability) {
+            regions.refuseContrast("--method stability");
+        }
         if (skip != null && skip < 0) {
             throw new InputException("--skip must be 0 or more frames, was " + skip);
         }

@@ -68,6 +68,7 @@ public class CheckCommand implements Callable<Integer> {
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "check");
         progress.report(0.0, "reading " + image.getFileName());
         ImagePlus imp = ImageFiles.open(image, echoOption.get());
+        regions.refuseContrast("check");
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         RegionOptions.require(roles, false, false, true);
         Measurement m = CheckMeasure.run(imp, image.getFileName().toString(), roles,

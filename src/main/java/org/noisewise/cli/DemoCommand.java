@@ -1,5 +1,6 @@
 package org.noisewise.cli;
 
+import org.noisewise.measure.BackgroundMeasure;
 import org.noisewise.measure.CompareMeasure;
 import org.noisewise.measure.GFactorMeasure;
 import org.noisewise.measure.Progress;
@@ -8,6 +9,7 @@ import org.noisewise.measure.StabilityMeasure;
 import org.noisewise.sample.DicomSample;
 import org.noisewise.sample.ProtocolSamples;
 import org.noisewise.sample.StabilitySample;
+import org.noisewise.sample.TissueSample;
 import ij.ImagePlus;
 import java.io.PrintWriter;
 import java.nio.file.Files;
@@ -97,6 +99,8 @@ public class DemoCommand implements Callable<Integer> {
         protocols();
         heading("8. A DICOM series as the scanner exports it: every slice measured on its own");
         dicomSeries();
+        heading("9. Contrast-to-noise ratio of two tissues, corrected for the magnitude bias");
+        contrast();
         out.println();
         out.println("Hand method = signal mean / SD of air, uncorrected: too high by 1/0.655 = 1.53x for one channel.");
         out.println("For image-quality QA and research only, not diagnosis; acceptance decisions rest with your site's");
@@ -139,6 +143,34 @@ public class DemoCommand implements Callable<Integer> {
                     fmt(((Number) row.get("snr")).doubleValue()), ci(((Number) row.get("snr_ci95[0]")).doubleValue(),
                             ((Number) row.get("snr_ci95[1]")).doubleValue()));
         }
+    }
+
+    /** The two-tissue sample: the CNR by the background and repeated methods beside the truth and the plain CNR. */
+    private void contrast() throws InputException {
+        ImagePlus imp = ImageFiles.open(samples.resolve(TissueSample.FILE));
+        int n = TissueSample.SIZE;
+        Rect r = TissueSample.SIGNAL;
+        Rect c = TissueSample.CONTRAST;
+        List<Region> bg = new java.util.ArrayList<>();
+        for (Rect b : SampleCatalog.BACKGROUND) {
+            bg.add(Region.rectangle("background", b.x(), b.y(), b.w(), b.h(), n, n));
+        }
+        Roles roles = new Roles(List.of(Region.rectangle("signal", r.x(), r.y(), r.w(), r.h(), n, n)), bg,
+                List.of(Region.rectangle("contrast", c.x(), c.y(), c.w(), c.h(), n, n)));
+        var b = BackgroundMeasure.run(imp, TissueSample.FILE, roles, new BackgroundMeasure.Options(TissueSample.CHANNELS,
+                null, null), new int[] {1}, null, Progress.NONE).rows().get(0);
+        var rep = org.noisewise.measure.RepeatedMeasure.run(imp, TissueSample.FILE, roles, TissueSample.CHANNELS,
+                new int[] {1}, false, Progress.NONE).rows().get(0);
+        out.printf(Locale.ROOT, "%n%s  (8 channels; outer gel %s, insert %s, sigma %s)%n", TissueSample.FILE,
+                fmt(TissueSample.OUTER), fmt(TissueSample.INSERT), fmt(TissueSample.SIGMA));
+        out.printf(Locale.ROOT, ROW, "", "true", "measured", "95% interval");
+        for (var row : List.of(b, rep)) {
+            out.printf(Locale.ROOT, ROW, "CNR (corrected), " + row.get("method") + " method",
+                    fmt(TissueSample.trueCnr()), fmt(((Number) row.get("cnr")).doubleValue()),
+                    ci(((Number) row.get("cnr_ci95[0]")).doubleValue(), ((Number) row.get("cnr_ci95[1]")).doubleValue()));
+        }
+        out.printf(Locale.ROOT, ROW, "CNR plain (S - C) / sigma, background", fmt(TissueSample.trueCnr()),
+                fmt(((Number) b.get("cnr_magnitude")).doubleValue()), "biased low");
     }
 
     /** The bundled protocol series: 2 against 8 averages (predicted ratio 2), and R = 2 with a g ramp. */

@@ -18,6 +18,7 @@ import org.noisewise.sample.DicomSample;
 import org.noisewise.sample.SampleCatalog;
 import org.noisewise.sample.ProtocolSamples;
 import org.noisewise.sample.StabilitySample;
+import org.noisewise.sample.TissueSample;
 import org.noisewise.sample.SampleCatalog.Rect;
 import org.noisewise.sample.SampleCatalog.Sample;
 import picocli.CommandLine.Command;
@@ -37,21 +38,7 @@ public class GenerateSamplesCommand implements Callable<Integer> {
             Files.createDirectories(out);
             JsonArray truth = new JsonArray();
             for (Sample s : SampleCatalog.SAMPLES) {
-                ImageStack st = new ImageStack(SampleCatalog.SIZE, SampleCatalog.SIZE);
-                for (float[] frame : s.generate()) {
-                    st.addSlice(new FloatProcessor(SampleCatalog.SIZE, SampleCatalog.SIZE, frame));
-                }
-                ImagePlus imp = new ImagePlus(s.file(), st);
-                imp.setProperty("Info", "Noisewise generated sample (invented scenario): " + s.description());
-                imp.getCalibration().pixelWidth = SampleCatalog.PIXEL_MM;
-                imp.getCalibration().pixelHeight = SampleCatalog.PIXEL_MM;
-                imp.getCalibration().pixelDepth = 5.0;
-                imp.getCalibration().setUnit("mm");
-                FileSaver saver = new FileSaver(imp);
-                String path = out.resolve(s.file()).toString();
-                if (!(st.getSize() > 1 ? saver.saveAsTiffStack(path) : saver.saveAsTiff(path))) {
-                    throw new InputException("could not write " + out.resolve(s.file()));
-                }
+                writeDiskStack(out, s.file(), s.generate(), s.description());
                 truth.add(toJson(s));
             }
             writeStability(out);
@@ -60,6 +47,8 @@ public class GenerateSamplesCommand implements Callable<Integer> {
                 writeProtocolSeries(out, ps);
                 truth.add(protocolTruth(ps));
             }
+            writeTissues(out);
+            truth.add(tissueTruth());
             writeDicomSeries(out);
             truth.add(dicomTruth());
             JsonObject root = new JsonObject();
@@ -113,6 +102,55 @@ public class GenerateSamplesCommand implements Callable<Integer> {
         if (!new FileSaver(imp).saveAsTiffStack(out.resolve(ps.file()).toString())) {
             throw new InputException("could not write " + out.resolve(ps.file()));
         }
+    }
+
+    /** The two-tissue sample: its repeats as stack slices, 32-bit. */
+    static void writeTissues(Path out) throws InputException {
+        writeDiskStack(out, TissueSample.FILE, TissueSample.generate(), "Bramble, two-compartment gel phantom, 4 repeats");
+    }
+
+    /** A 128 x 128 sample of 2 mm pixels, 5 mm slices, 32-bit: one image, or a stack of its frames. */
+    private static void writeDiskStack(Path out, String file, float[][] frames, String description)
+            throws InputException {
+        ImageStack st = new ImageStack(SampleCatalog.SIZE, SampleCatalog.SIZE);
+        for (float[] frame : frames) {
+            st.addSlice(new FloatProcessor(SampleCatalog.SIZE, SampleCatalog.SIZE, frame));
+        }
+        ImagePlus imp = new ImagePlus(file, st);
+        imp.setProperty("Info", "Noisewise generated sample (invented scenario): " + description);
+        imp.getCalibration().pixelWidth = SampleCatalog.PIXEL_MM;
+        imp.getCalibration().pixelHeight = SampleCatalog.PIXEL_MM;
+        imp.getCalibration().pixelDepth = 5.0;
+        imp.getCalibration().setUnit("mm");
+        FileSaver saver = new FileSaver(imp);
+        String path = out.resolve(file).toString();
+        if (!(st.getSize() > 1 ? saver.saveAsTiffStack(path) : saver.saveAsTiff(path))) {
+            throw new InputException("could not write " + out.resolve(file));
+        }
+    }
+
+    private static JsonObject tissueTruth() {
+        JsonObject o = new JsonObject();
+        o.addProperty("file", TissueSample.FILE);
+        o.addProperty("description", "Bramble, 8-channel array, two-compartment gel phantom (outer gel and a darker "
+                + "insert), 4 repeats, for the contrast-to-noise ratio");
+        o.addProperty("use", "contrast");
+        o.addProperty("frames", TissueSample.REPEATS);
+        o.addProperty("channels", TissueSample.CHANNELS);
+        o.addProperty("amplitude", TissueSample.OUTER);
+        o.addProperty("contrast_amplitude", TissueSample.INSERT);
+        o.addProperty("sigma", TissueSample.SIGMA);
+        o.addProperty("true_snr", TissueSample.OUTER / TissueSample.SIGMA);
+        o.addProperty("true_cnr", TissueSample.trueCnr());
+        o.addProperty("seed", TissueSample.SEED);
+        o.addProperty("signal", TissueSample.SIGNAL.toString());
+        o.addProperty("contrast", TissueSample.CONTRAST.toString());
+        JsonArray bg = new JsonArray();
+        for (Rect r : SampleCatalog.BACKGROUND) {
+            bg.add(r.toString());
+        }
+        o.add("background", bg);
+        return o;
     }
 
     /** The DICOM series sample as a scanner writes it: one file per image in a folder of its own. */

@@ -23,15 +23,21 @@ public class RegionOptions {
             description = "Background region in air; repeat for several regions (pooled).")
     List<RegionSpec> background = new ArrayList<>();
 
+    @Option(names = "--contrast", paramLabel = "x,y,w,h", converter = RegionConverter.class,
+            description = "Contrast region (a second tissue) for the contrast-to-noise ratio: adds cnr, its "
+                    + "interval and the contrast amplitude (background, difference, repeat).")
+    List<RegionSpec> contrast = new ArrayList<>();
+
     @Option(names = "--rois", paramLabel = "FILE",
             description = "ImageJ ROI file (.roi or ROI Manager .zip); roles by name: signal..., "
-                    + "background.../bg.../air.../noise...")
+                    + "background.../bg.../air.../noise..., contrast...")
     Path rois;
 
     /** The regions by role, checked against the image size. */
     Roles resolve(int width, int height) throws InputException {
         List<Region> sig = new ArrayList<>();
         List<Region> bg = new ArrayList<>();
+        List<Region> con = new ArrayList<>();
         if (rois != null) {
             List<Roi> list = RoiRegions.read(rois);
             for (int i = 0; i < list.size(); i++) {
@@ -42,6 +48,8 @@ public class RegionOptions {
                     sig.add(RoiRegions.toRegion(r, name, width, height));
                 } else if (role == RoleNames.BACKGROUND) {
                     bg.add(RoiRegions.toRegion(r, name, width, height));
+                } else if (role == RoleNames.CONTRAST && contrast.isEmpty()) {
+                    con.add(RoiRegions.toRegion(r, name, width, height));
                 }
             }
         }
@@ -51,7 +59,18 @@ public class RegionOptions {
         for (int i = 0; i < background.size(); i++) {
             bg.add(background.get(i).toRegion("background " + (i + 1), width, height));
         }
-        return new Roles(sig, bg);
+        for (int i = 0; i < contrast.size(); i++) {
+            con.add(contrast.get(i).toRegion(contrast.size() > 1 ? "contrast " + (i + 1) : "contrast", width, height));
+        }
+        return new Roles(sig, bg, con);
+    }
+
+    /** Refuses {@code --contrast} where the method has no contrast-to-noise ratio (it would be ignored). */
+    void refuseContrast(String command) throws InputException {
+        if (!contrast.isEmpty()) {
+            throw new InputException("--contrast is not used by " + command + ": the contrast-to-noise ratio comes with "
+                    + "the background, difference and repeat methods; leave --contrast out");
+        }
     }
 
     /** Fails with the command line's wording when a needed role is missing. */

@@ -142,6 +142,7 @@ public class StabilityCommand implements Callable<Integer> {
     /** The stability measurement of one opened series (shared with batch). */
     static StabilityMeasure.Outcome run(ImagePlus imp, String name, RegionOptions regions, StabilityMeasure.Options o,
                                         Path source, Progress progress) throws InputException {
+        regions.refuseContrast("stability");
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         if (roles.signal().size() > 1) {
             throw new InputException("give one signal region for the stability figures (" + roles.signal().size()

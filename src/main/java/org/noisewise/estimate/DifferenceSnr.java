@@ -38,6 +38,17 @@ public final class DifferenceSnr {
      */
     public static DifferenceSnrResult analyze(float[] first, float[] second, int width, Region signal, int channels)
             throws InputException {
+        return analyze(first, second, width, signal, channels, 0.0);
+    }
+
+    /**
+     * As {@link #analyze(float[], float[], int, Region, int)} for values stored as whole multiples of
+     * {@code step} (0: continuous): rounding adds {@code step^2 / 12} to the variance of each image
+     * (Sheppard's correction), which the corrected sigma removes; the plain figures keep it, as a hand
+     * calculation would.
+     */
+    public static DifferenceSnrResult analyze(float[] first, float[] second, int width, Region signal, int channels,
+                                              double step) throws InputException {
         if (first.length != second.length) {
             throw new InputException("the two acquisitions differ in size (" + first.length + " and "
                     + second.length + " pixels): choose two images of the same matrix");
@@ -75,8 +86,9 @@ public final class DifferenceSnr {
         double seAverage = s * Math.sqrt(1.0 / (2.0 * nMean));
         int negatives = SignedValues.negatives(a) + SignedValues.negatives(b);
         boolean signed = SignedValues.signed(negatives, 2L * n);
-        CorrectedSnr figures = signed ? CorrectedSnr.gaussian(savg.mean(), seAverage, s, seLogS)
-                : CorrectedSnr.meanAndSd(savg.mean(), seAverage, s, seLogS, channels);
+        double noise = SampleStats.sheppard(s, step);
+        CorrectedSnr figures = signed ? CorrectedSnr.gaussian(savg.mean(), seAverage, noise, seLogS)
+                : CorrectedSnr.meanAndSd(savg.mean(), seAverage, noise, seLogS, channels);
         double plain = sa.mean() / s;
         double seLogPlain = Math.sqrt(Math.pow(s / Math.sqrt(nMean) / sa.mean(), 2) + seLogS * seLogS);
         Interval plainCi = sa.mean() > 0 ? new Interval(plain * Math.exp(-Levels.Z95 * seLogPlain),

@@ -25,6 +25,11 @@ public record DifferenceSnrResult(SampleStats signal, double averageMean, double
         warnings = List.copyOf(warnings);
     }
 
+    /** Standard error of the average image's region mean, {@code s / sqrt(2 n_eff)} (n_eff for means). */
+    public double averageStandardError() {
+        return sigmaMagnitude * Math.sqrt(1.0 / (2.0 * correlation.effectiveForMean(signal.n())));
+    }
+
     /** The corrected per-channel noise SD. */
     public double sigma() {
         return figures.sigma();

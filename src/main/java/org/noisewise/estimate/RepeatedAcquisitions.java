@@ -330,6 +330,16 @@ public final class RepeatedAcquisitions {
      */
     public static RepeatedSnrResult summarize(Maps maps, Frames frames, Region signal, int channels)
             throws InputException {
+        return summarize(maps, frames, signal, channels, 0.0);
+    }
+
+    /**
+     * As {@link #summarize(Maps, Frames, Region, int)} for values stored as whole multiples of
+     * {@code step} (0: continuous): rounding adds {@code step^2 / 12} to each pixel's temporal variance
+     * (Sheppard's correction), which the corrected figures remove; the plain SNR keeps it.
+     */
+    public static RepeatedSnrResult summarize(Maps maps, Frames frames, Region signal, int channels, double step)
+            throws InputException {
         if (signal == null) {
             throw new InputException("no signal region: mark the region to summarise");
         }
@@ -354,8 +364,9 @@ public final class RepeatedAcquisitions {
         double seLogS = Math.sqrt(corr.squared() / (2.0 * n * (k - 1.0)));
         double seMean = s * Math.sqrt(corr.linear() / ((double) n * k));
         boolean signed = SignedValues.signed((int) Math.min(Integer.MAX_VALUE, negatives[0]), negatives[1]);
-        CorrectedSnr figures = signed ? CorrectedSnr.gaussian(meanStats.mean(), seMean, s, seLogS)
-                : CorrectedSnr.meanAndSd(meanStats.mean(), seMean, s, seLogS, channels);
+        double noise = SampleStats.sheppard(s, step);
+        CorrectedSnr figures = signed ? CorrectedSnr.gaussian(meanStats.mean(), seMean, noise, seLogS)
+                : CorrectedSnr.meanAndSd(meanStats.mean(), seMean, noise, seLogS, channels);
         double plain = meanStats.mean() / s;
         double seLogPlain = Math.sqrt(Math.pow(seMean / meanStats.mean(), 2) + seLogS * seLogS);
         Interval plainCi = meanStats.mean() > 0 ? new Interval(plain * Math.exp(-Levels.Z95 * seLogPlain),

@@ -26,6 +26,11 @@ public record RepeatedSnrResult(int repeats, int pixels, double signalMean, doub
         warnings = List.copyOf(warnings);
     }
 
+    /** Standard error of the region's magnitude mean, {@code s sqrt(V1 / (n K))} with the residuals' linear inflation. */
+    public double meanStandardError() {
+        return sigmaMagnitude * Math.sqrt(correlation.linear() / ((double) pixels * repeats));
+    }
+
     /** The corrected per-channel noise SD. */
     public double sigma() {
         return figures.sigma();

@@ -43,4 +43,15 @@ public record SampleStats(int n, double mean, double sd, double sumSquares, doub
     public double standardError() {
         return sd / Math.sqrt(n);
     }
+
+    /**
+     * An SD with the variance of rounding to whole multiples of {@code step} removed (Sheppard's
+     * correction, {@code s^2 - step^2 / 12}); unchanged for continuous values ({@code step = 0}) or
+     * where the rounding is as coarse as the noise ({@code s^2 <= step^2 / 6}), where the correction
+     * no longer holds.
+     */
+    public static double sheppard(double sd, double step) {
+        double r = step * step / 12.0;
+        return step > 0 && sd * sd > 2 * r ? Math.sqrt(sd * sd - r) : sd;
+    }
 }

@@ -77,7 +77,7 @@ public class BackgroundSnrCommand implements PlugIn {
                             + "choose 'Roles from: Region names'.");
                 }
                 signal = regions.selection;
-                background.addAll(List.of(regions.managed));
+                background.addAll(regions.withoutRole(org.noisewise.io.RoleNames.CONTRAST));
             } else {
                 List<Roi> sig = regions.withRole(org.noisewise.io.RoleNames.SIGNAL);
                 if (sig.size() > 1) {
@@ -88,11 +88,12 @@ public class BackgroundSnrCommand implements PlugIn {
                 background.addAll(regions.withRole(org.noisewise.io.RoleNames.BACKGROUND));
             }
             ImagePlus second = NONE.equals(secondTitle) ? null : WindowManager.getImage(secondTitle);
-            Measurement m = measure(imp, signal, background, new BackgroundMeasure.Options(channels, estimator,
-                    phase), all, second);
+            Roi contrast = regions.contrastRegion();
+            Measurement m = measure(imp, signal, background, contrast, new BackgroundMeasure.Options(channels,
+                    estimator, phase), all, second);
             Face.show(TITLE, imp, m.rows(), append);
             Face.log(TITLE, m.notes());
-            Face.overlay(imp, List.of(signal), background);
+            Face.overlay(imp, List.of(signal), background, contrast);
             Face.reactivate(imp);
         });
     }
@@ -105,12 +106,20 @@ public class BackgroundSnrCommand implements PlugIn {
      */
     public static ResultsTable process(ImagePlus imp, Roi signal, List<Roi> background, BackgroundMeasure.Options o,
                                        boolean allSlices, ImagePlus second) throws InputException {
-        return Tables.toResultsTable(measure(imp, signal, background, o, allSlices, second).rows());
+        return Tables.toResultsTable(measure(imp, signal, background, null, o, allSlices, second).rows());
+    }
+
+    /** As {@code process} above, with a contrast region (may be null) for the contrast-to-noise ratio. */
+    public static ResultsTable process(ImagePlus imp, Roi signal, List<Roi> background, Roi contrast,
+                                       BackgroundMeasure.Options o, boolean allSlices, ImagePlus second)
+            throws InputException {
+        return Tables.toResultsTable(measure(imp, signal, background, contrast, o, allSlices, second).rows());
     }
 
     /** The measurement behind {@link #process}, with its notes. */
-    public static Measurement measure(ImagePlus imp, Roi signal, List<Roi> background, BackgroundMeasure.Options o,
-                                      boolean allSlices, ImagePlus second) throws InputException {
+    public static Measurement measure(ImagePlus imp, Roi signal, List<Roi> background, Roi contrast,
+                                      BackgroundMeasure.Options o, boolean allSlices, ImagePlus second)
+            throws InputException {
         Face.checkImage(imp, TITLE);
         if (signal == null) {
             throw new InputException("There is no signal region: name a ROI Manager region 'signal', or draw a "
@@ -121,8 +130,8 @@ public class BackgroundSnrCommand implements PlugIn {
                     + "them 'background', 'bg', 'air' or 'noise'.");
         }
         int[] planes = allSlices ? Planes.all(imp) : new int[] {imp.getCurrentSlice()};
-        return BackgroundMeasure.run(imp, imp.getTitle(), RegionRoles.roles(List.of(signal), background, imp), o,
-                planes, second, ImageJProgress.INSTANCE);
+        return BackgroundMeasure.run(imp, imp.getTitle(), RegionRoles.roles(List.of(signal), background, contrast, imp),
+                o, planes, second, ImageJProgress.INSTANCE);
     }
 
     /** The title of the table a first run on {@code imp} shows (later runs get unique titles). */

@@ -73,11 +73,12 @@ public class DifferenceSnrCommand implements PlugIn {
                 throw new InputException("The frames and the channel count must be whole numbers (Channels at least 1).");
             }
             List<Roi> signal = regions.withSelectionOf(first).signalRegions();
-            Measurement m = frames ? measureFrames(first, a, b, signal, channels, all)
-                    : measureImages(first, second, signal, channels, all);
+            Roi contrast = regions.contrastRegion();
+            Measurement m = frames ? measureFrames(first, a, b, signal, contrast, channels, all)
+                    : measureImages(first, second, signal, contrast, channels, all);
             Face.show(TITLE, first, m.rows(), append);
             Face.log(TITLE, m.notes());
-            Face.overlay(first, signal, List.of());
+            Face.overlay(first, signal, List.of(), contrast);
             Face.reactivate(first);
         });
     }
@@ -85,39 +86,51 @@ public class DifferenceSnrCommand implements PlugIn {
     /** Two images of the same size; per slice when they are stacks. Never modifies them. */
     public static ResultsTable processImages(ImagePlus first, ImagePlus second, List<Roi> signal, int channels,
                                              boolean allSlices) throws InputException {
-        return Tables.toResultsTable(measureImages(first, second, signal, channels, allSlices).rows());
+        return Tables.toResultsTable(measureImages(first, second, signal, null, channels, allSlices).rows());
+    }
+
+    /** As {@code processImages} above, with a contrast region (may be null) for the contrast-to-noise ratio. */
+    public static ResultsTable processImages(ImagePlus first, ImagePlus second, List<Roi> signal, Roi contrast,
+                                             int channels, boolean allSlices) throws InputException {
+        return Tables.toResultsTable(measureImages(first, second, signal, contrast, channels, allSlices).rows());
     }
 
     /** Frames {@code a} and {@code b} of one stack or hyperstack (per z slice). Never modifies it. */
     public static ResultsTable processFrames(ImagePlus imp, int a, int b, List<Roi> signal, int channels,
                                              boolean allSlices) throws InputException {
-        return Tables.toResultsTable(measureFrames(imp, a, b, signal, channels, allSlices).rows());
+        return Tables.toResultsTable(measureFrames(imp, a, b, signal, null, channels, allSlices).rows());
     }
 
-    static Measurement measureImages(ImagePlus first, ImagePlus second, List<Roi> signal, int channels,
+    /** As {@code processFrames} above, with a contrast region (may be null) for the contrast-to-noise ratio. */
+    public static ResultsTable processFrames(ImagePlus imp, int a, int b, List<Roi> signal, Roi contrast, int channels,
+                                             boolean allSlices) throws InputException {
+        return Tables.toResultsTable(measureFrames(imp, a, b, signal, contrast, channels, allSlices).rows());
+    }
+
+    static Measurement measureImages(ImagePlus first, ImagePlus second, List<Roi> signal, Roi contrast, int channels,
                                      boolean allSlices) throws InputException {
         Face.checkImage(first, TITLE);
         Face.checkImage(second, TITLE);
         int[] planes = allSlices ? Planes.all(first) : new int[] {first.getCurrentSlice()};
-        return DifferenceMeasure.images(first, first.getTitle(), second, second.getTitle(), roles(first, signal),
-                channels, planes, ImageJProgress.INSTANCE);
+        return DifferenceMeasure.images(first, first.getTitle(), second, second.getTitle(), roles(first, signal,
+                contrast), channels, planes, ImageJProgress.INSTANCE);
     }
 
-    static Measurement measureFrames(ImagePlus imp, int a, int b, List<Roi> signal, int channels, boolean allSlices)
-            throws InputException {
+    static Measurement measureFrames(ImagePlus imp, int a, int b, List<Roi> signal, Roi contrast, int channels,
+                                     boolean allSlices) throws InputException {
         Face.checkImage(imp, TITLE);
         ImagePlus series = Face.series(imp);
         int[] planes = allSlices ? Planes.allZ(series) : new int[] {Face.currentZ(series, imp)};
-        return DifferenceMeasure.frames(series, imp.getTitle(), a, b, roles(imp, signal), channels, planes,
+        return DifferenceMeasure.frames(series, imp.getTitle(), a, b, roles(imp, signal, contrast), channels, planes,
                 ImageJProgress.INSTANCE);
     }
 
-    private static Roles roles(ImagePlus imp, List<Roi> signal) throws InputException {
+    private static Roles roles(ImagePlus imp, List<Roi> signal, Roi contrast) throws InputException {
         if (signal == null || signal.isEmpty()) {
             throw new InputException("There is no signal region: draw one on the first image, or add regions named "
                     + "'signal' to the ROI Manager.");
         }
-        return RegionRoles.roles(signal, List.of(), imp);
+        return RegionRoles.roles(signal, List.of(), contrast, imp);
     }
 
     /** The title of the table a first run on {@code imp} shows (later runs get unique titles). */

@@ -28,6 +28,7 @@ final class Face {
     /** Overlay colours by role. */
     static final Color SIGNAL = Color.yellow;
     static final Color BACKGROUND = Color.cyan;
+    static final Color CONTRAST = Color.red;
     /** Property that marks overlay elements drawn by Noisewise (only these are replaced on a rerun). */
     static final String MARK = "noisewise.overlay";
 
@@ -125,6 +126,11 @@ final class Face {
      * (Image > Overlay > Remove Overlay takes it away).
      */
     static void overlay(ImagePlus imp, List<Roi> signal, List<Roi> background) {
+        overlay(imp, signal, background, null);
+    }
+
+    /** The regions in their role colours with a key; {@code contrast} (red) may be null. */
+    static void overlay(ImagePlus imp, List<Roi> signal, List<Roi> background, Roi contrast) {
         List<Roi> all = new java.util.ArrayList<>();
         for (Roi r : signal) {
             all.add(coloured(r, SIGNAL));
@@ -138,6 +144,10 @@ final class Face {
         }
         if (!background.isEmpty()) {
             key.add(new QaImages.KeyEntry("background", BACKGROUND, "cyan"));
+        }
+        if (contrast != null) {
+            all.add(coloured(contrast, CONTRAST));
+            key.add(new QaImages.KeyEntry("contrast", CONTRAST, "red"));
         }
         overlayWithKey(imp, all, key);
     }

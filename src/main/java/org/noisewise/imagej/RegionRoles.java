@@ -124,9 +124,30 @@ final class RegionRoles {
             return List.of(selection);
         }
         if (withRole(RoleNames.BACKGROUND).isEmpty()) {
-            return List.of(managed);
+            return withoutRole(RoleNames.CONTRAST);
         }
         return List.of();
+    }
+
+    /** The managed regions except those with {@code role}. */
+    List<Roi> withoutRole(RoleNames role) {
+        List<Roi> out = new ArrayList<>();
+        for (int i = 0; i < managed.length; i++) {
+            if (roles[i] != role) {
+                out.add(managed[i]);
+            }
+        }
+        return out;
+    }
+
+    /** The region with the contrast role, or null; more than one is refused. */
+    Roi contrastRegion() throws InputException {
+        List<Roi> c = withRole(RoleNames.CONTRAST);
+        if (c.size() > 1) {
+            throw new InputException("More than one ROI Manager region has the contrast role: keep one (rename the "
+                    + "others, or give them another role).");
+        }
+        return c.isEmpty() ? null : c.get(0);
     }
 
     /**
@@ -139,7 +160,7 @@ final class RegionRoles {
             return bg;
         }
         if (managed.length > 0 && withRole(RoleNames.SIGNAL).isEmpty()) {
-            return List.of(managed);
+            return withoutRole(RoleNames.CONTRAST);
         }
         return selection == null ? List.of() : List.of(selection);
     }
@@ -158,7 +179,13 @@ final class RegionRoles {
 
     /** The roles of a measurement from signal and background ROIs. */
     static Roles roles(List<Roi> signal, List<Roi> background, ImagePlus imp) throws InputException {
+        return roles(signal, background, null, imp);
+    }
+
+    /** The roles of a measurement from signal, background and (nullable) contrast ROIs. */
+    static Roles roles(List<Roi> signal, List<Roi> background, Roi contrast, ImagePlus imp) throws InputException {
         return new Roles(toRegions(signal, "signal", imp.getWidth(), imp.getHeight()),
-                toRegions(background, "background", imp.getWidth(), imp.getHeight()));
+                toRegions(background, "background", imp.getWidth(), imp.getHeight()),
+                contrast == null ? List.of() : toRegions(List.of(contrast), "contrast", imp.getWidth(), imp.getHeight()));
     }
 }

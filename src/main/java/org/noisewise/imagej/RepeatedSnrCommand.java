@@ -67,12 +67,13 @@ public class RepeatedSnrCommand implements PlugIn {
                 throw new InputException("Nothing to do: there is no signal region for a summary and the maps are off. "
                         + "Add a region named 'signal' to the ROI Manager, or tick Maps.");
             }
-            Measurement m = measure(imp, signal, channels, all, showMaps);
+            Roi contrast = regions.contrastRegion();
+            Measurement m = measure(imp, signal, contrast, channels, all, showMaps);
             m.images().forEach(Face::showNew);
             Face.log(TITLE, m.notes());
             if (!m.rows().isEmpty()) {
                 Face.show(TITLE, imp, m.rows(), append);
-                Face.overlay(imp, signal, List.of());
+                Face.overlay(imp, signal, List.of(), contrast);
             }
             Face.reactivate(imp);
         });
@@ -83,17 +84,23 @@ public class RepeatedSnrCommand implements PlugIn {
      * Never modifies {@code imp}.
      */
     public static Output process(ImagePlus imp, List<Roi> signal, int channels, boolean allSlices) throws InputException {
-        Measurement m = measure(imp, signal, channels, allSlices, true);
+        return process(imp, signal, null, channels, allSlices);
+    }
+
+    /** As {@code process} above, with a contrast region (may be null) for the contrast-to-noise ratio. */
+    public static Output process(ImagePlus imp, List<Roi> signal, Roi contrast, int channels, boolean allSlices)
+            throws InputException {
+        Measurement m = measure(imp, signal, contrast, channels, allSlices, true);
         return new Output(m.images(), m.rows().isEmpty() ? null : Tables.toResultsTable(m.rows()));
     }
 
-    static Measurement measure(ImagePlus imp, List<Roi> signal, int channels, boolean allSlices, boolean maps)
-            throws InputException {
+    static Measurement measure(ImagePlus imp, List<Roi> signal, Roi contrast, int channels, boolean allSlices,
+                               boolean maps) throws InputException {
         Face.checkImage(imp, TITLE);
         ImagePlus series = Face.series(imp);
         int[] planes = allSlices ? Planes.allZ(series) : new int[] {Face.currentZ(series, imp)};
         return RepeatedMeasure.run(series, imp.getTitle(), RegionRoles.roles(signal == null ? List.of() : signal,
-                List.of(), imp), channels, planes, maps, ImageJProgress.INSTANCE);
+                List.of(), contrast, imp), channels, planes, maps, ImageJProgress.INSTANCE);
     }
 
     /** The title of the table a first run on {@code imp} shows (later runs get unique titles). */

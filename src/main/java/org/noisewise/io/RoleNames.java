@@ -5,12 +5,15 @@ import java.util.Locale;
 /**
  * The naming convention that gives a region its role. A region whose name starts with
  * {@code signal} or {@code sig} is a signal region; one whose name starts with {@code background},
- * {@code bg}, {@code air} or {@code noise} is a background region; anything else has no role until
- * the user gives one (case is ignored; e.g. "Signal", "bg-left", "air 2").
+ * {@code bg}, {@code air} or {@code noise} is a background region; one whose name starts with
+ * {@code contrast} is the contrast region of a contrast-to-noise ratio (the second tissue); anything
+ * else has no role until the user gives one (case is ignored; e.g. "Signal", "bg-left", "air 2",
+ * "contrast grey matter").
  */
 public enum RoleNames {
     SIGNAL("signal"),
     BACKGROUND("background"),
+    CONTRAST("contrast"),
     IGNORE("ignore");
 
     private final String label;
@@ -35,6 +38,9 @@ public enum RoleNames {
         if (n.startsWith("background") || n.startsWith("bg") || n.startsWith("air") || n.startsWith("noise")) {
             return BACKGROUND;
         }
+        if (n.startsWith("contrast")) {
+            return CONTRAST;
+        }
         return IGNORE;
     }
 
@@ -44,10 +50,10 @@ public enum RoleNames {
                 return r;
             }
         }
-        throw new IllegalArgumentException("unknown role '" + label + "': use signal, background or ignore");
+        throw new IllegalArgumentException("unknown role '" + label + "': use signal, background, contrast or ignore");
     }
 
     public static String[] labels() {
-        return new String[] {SIGNAL.label, BACKGROUND.label, IGNORE.label};
+        return new String[] {SIGNAL.label, BACKGROUND.label, CONTRAST.label, IGNORE.label};
     }
 }

@@ -16,12 +16,13 @@ import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.ImageMetadata;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.report.BackgroundSnrRows;
+import org.noisewise.report.CnrRows;
 import org.noisewise.report.ResultRow;
 
 /**
  * The background (single-image) SNR method on an image: one row per plane, each judged by the
  * background diagnostics ({@link BackgroundSnr}); optionally checked against a second acquisition's
- * difference sigma over the signal region.
+ * difference sigma over the signal region, and with a contrast region its contrast-to-noise ratio.
  */
 public final class BackgroundMeasure {
 
@@ -49,6 +50,7 @@ public final class BackgroundMeasure {
         ImagePlanes.requireGrayscale(imp);
         Region signal = roles.oneSignal();
         List<Region> background = roles.backgrounds();
+        Region contrast = roles.oneContrast();
         if (second != null) {
             ImagePlanes.requireGrayscale(second);
             ImagePlanes.requireSameShape(imp, title, second, second.getTitle());
@@ -73,7 +75,7 @@ public final class BackgroundMeasure {
                     BackgroundValues.storage(imp, n));
             if (second != null) {
                 DifferenceSnrResult d = DifferenceSnr.analyze(px, ImagePlanes.calibratedPixels(second, n), w, signal,
-                        o.channels() == null ? 1 : o.channels());
+                        o.channels() == null ? 1 : o.channels(), BackgroundValues.storage(imp, n).step());
                 po = po.withDifference(new BackgroundSnr.DifferenceSigma(d.sigma(), d.sigmaCi95()));
             }
             BackgroundSnrResult r = BackgroundSnr.analyze(px, w, h, signal, background, po);
@@ -82,7 +84,11 @@ public final class BackgroundMeasure {
                                 + "(95%% interval %.2f-%.2f), %d used", n, r.diagnosis().channelEstimate().channels(),
                         r.diagnosis().channelEstimate().low(), r.diagnosis().channelEstimate().high(), r.channels()));
             }
-            rows.add(BackgroundSnrRows.row(title, n, unit, r));
+            ResultRow row = BackgroundSnrRows.row(title, n, unit, r);
+            if (contrast != null) {
+                row = CnrRows.with(row, Contrast.background(px, w, signal, contrast, r), contrast.name(), unit);
+            }
+            rows.add(row);
         }
         progress.report(1.0, "");
         Acquisition.addEfficiency(rows, imp, notes);

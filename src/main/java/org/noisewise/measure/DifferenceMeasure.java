@@ -4,10 +4,13 @@ import ij.ImagePlus;
 import java.util.ArrayList;
 import java.util.List;
 import org.noisewise.estimate.DifferenceSnr;
+import org.noisewise.estimate.DifferenceSnrResult;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
+import org.noisewise.io.BackgroundValues;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.StackPlanes;
+import org.noisewise.report.CnrRows;
 import org.noisewise.report.MethodRows;
 import org.noisewise.report.ResultRow;
 
@@ -31,6 +34,7 @@ public final class DifferenceMeasure {
                     + "' is " + second.getBitDepth() + "-bit: choose two acquisitions of the same type");
         }
         List<Region> regions = roles.signals();
+        Region contrast = roles.oneContrast();
         String unit = ImagePlanes.valueUnit(first);
         List<ResultRow> rows = new ArrayList<>();
         for (int k = 0; k < planes.length; k++) {
@@ -39,8 +43,10 @@ public final class DifferenceMeasure {
             float[] a = ImagePlanes.calibratedPixels(first, n);
             float[] b = ImagePlanes.calibratedPixels(second, n);
             for (Region reg : regions) {
-                rows.add(MethodRows.difference(firstTitle, secondTitle, n, unit,
-                        DifferenceSnr.analyze(a, b, first.getWidth(), reg, channels)).add("region", "Region", reg.name()));
+                double step = BackgroundValues.storage(first, n).step();
+                DifferenceSnrResult r = DifferenceSnr.analyze(a, b, first.getWidth(), reg, channels, step);
+                rows.add(row(MethodRows.difference(firstTitle, secondTitle, n, unit, r), r, a, b, first.getWidth(),
+                        reg, contrast, unit, step));
             }
         }
         progress.report(1.0, "");
@@ -61,6 +67,7 @@ public final class DifferenceMeasure {
                     + "acquisitions (two images, or a stack of two or more)");
         }
         List<Region> regions = roles.signals();
+        Region contrast = roles.oneContrast();
         String unit = ImagePlanes.valueUnit(imp);
         List<ResultRow> rows = new ArrayList<>();
         for (int k = 0; k < zs.length; k++) {
@@ -69,13 +76,26 @@ public final class DifferenceMeasure {
             float[] pa = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, a));
             float[] pb = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, b));
             for (Region reg : regions) {
-                rows.add(MethodRows.difference(title + " frame " + a, title + " frame " + b, z, unit,
-                        DifferenceSnr.analyze(pa, pb, imp.getWidth(), reg, channels)).add("region", "Region", reg.name()));
+                double step = Planes.step(imp, z);
+                DifferenceSnrResult r = DifferenceSnr.analyze(pa, pb, imp.getWidth(), reg, channels, step);
+                rows.add(row(MethodRows.difference(title + " frame " + a, title + " frame " + b, z, unit, r), r, pa,
+                        pb, imp.getWidth(), reg, contrast, unit, step));
             }
         }
         progress.report(1.0, "");
         List<String> notes = Measurement.imageNotes(imp);
         Acquisition.addEfficiency(rows, imp, notes);
         return new Measurement(rows, List.of(), List.of(), notes);
+    }
+
+    /** A region's row, with its region name and, given a contrast region, the CNR cells. */
+    private static ResultRow row(ResultRow methodRow, DifferenceSnrResult r, float[] a, float[] b, int width,
+                                 Region reg, Region contrast, String unit, double step) throws InputException {
+        ResultRow row = methodRow.add("region", "Region", reg.name());
+        if (contrast == null) {
+            return row;
+        }
+        return CnrRows.with(row, Contrast.difference(a, b, width, reg, contrast, r, r.channels(), step), contrast.name(),
+                unit);
     }
 }

@@ -44,13 +44,13 @@ record InputSnr(String method, CorrectedSnr figures, int repeats) {
         if (k >= 3) {
             RepeatedAcquisitions.Maps m = maps != null ? maps : RepeatedMaps.compute(imp, z);
             return positive(new InputSnr("repeated", RepeatedAcquisitions.summarize(m, RepeatedMaps.frames(imp, z),
-                    signal, channels).figures(), k), title, signal);
+                    signal, channels, Planes.step(imp, z)).figures(), k), title, signal);
         }
         if (k == 2) {
             float[] a = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, 1));
             float[] b = ImagePlanes.calibratedPixels(imp, StackPlanes.index(imp, z, 2));
-            return positive(new InputSnr("difference", DifferenceSnr.analyze(a, b, imp.getWidth(), signal, channels)
-                    .figures(), 2), title, signal);
+            return positive(new InputSnr("difference", DifferenceSnr.analyze(a, b, imp.getWidth(), signal, channels,
+                    Planes.step(imp, z)).figures(), 2), title, signal);
         }
         if (background.isEmpty()) {
             throw new InputException("'" + title + "' is a single image, so its SNR comes from background regions: give "

@@ -16,6 +16,14 @@ public final class Planes {
     }
 
     /**
+     * The storage step of z slice {@code z}'s frames in calibrated units (0 for continuous values), for
+     * the Sheppard correction of the difference and repeated methods' sigma.
+     */
+    public static double step(ImagePlus imp, int z) throws InputException {
+        return org.noisewise.io.BackgroundValues.storage(imp, StackPlanes.index(imp, z, 1)).step();
+    }
+
+    /**
      * Refuses two inputs that hold the same pixels (the same file given twice): a comparison of two
      * acquisitions needs two acquisitions.
      */

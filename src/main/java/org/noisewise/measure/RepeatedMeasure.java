@@ -6,16 +6,19 @@ import java.util.List;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 import org.noisewise.estimate.RepeatedAcquisitions;
+import org.noisewise.estimate.RepeatedSnrResult;
 import org.noisewise.io.ImagePlanes;
 import org.noisewise.io.RepeatedMaps;
 import org.noisewise.io.ResultImages;
 import org.noisewise.io.StackPlanes;
+import org.noisewise.report.CnrRows;
 import org.noisewise.report.MethodRows;
 import org.noisewise.report.ResultRow;
 
 /**
  * The repeated-acquisition method: per z slice, the temporal mean, SD and SNR maps (one 3-slice
- * image each, when asked for) and a corrected region summary per signal region.
+ * image each, when asked for) and a corrected region summary per signal region, with a contrast
+ * region its contrast-to-noise ratio.
  */
 public final class RepeatedMeasure {
 
@@ -37,6 +40,7 @@ public final class RepeatedMeasure {
         if (roles.signal().isEmpty() && !maps) {
             throw new InputException("nothing to do: give a signal region for the summary, or ask for the maps");
         }
+        Region contrast = roles.oneContrast();
         String unit = ImagePlanes.valueUnit(imp);
         int zCount = StackPlanes.zCount(imp);
         List<ImagePlus> images = new ArrayList<>();
@@ -49,9 +53,16 @@ public final class RepeatedMeasure {
             if (maps) {
                 images.add(ResultImages.mapStack(title + " repeat maps" + (zCount > 1 ? " z" + z : ""), m, imp, unit));
             }
+            RepeatedAcquisitions.Frames frames = RepeatedMaps.frames(imp, z);
+            double step = Planes.step(imp, z);
             for (Region reg : roles.signal()) {
-                rows.add(MethodRows.repeated(title, z, unit, RepeatedAcquisitions.summarize(m,
-                        RepeatedMaps.frames(imp, z), reg, channels)).add("region", "Region", reg.name()));
+                RepeatedSnrResult r = RepeatedAcquisitions.summarize(m, frames, reg, channels, step);
+                ResultRow row = MethodRows.repeated(title, z, unit, r).add("region", "Region", reg.name());
+                if (contrast != null) {
+                    row = CnrRows.with(row, Contrast.repeated(m, frames, reg, contrast, r, channels, step), contrast.name(),
+                            unit);
+                }
+                rows.add(row);
             }
         }
         progress.report(1.0, "");

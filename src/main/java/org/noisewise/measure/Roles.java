@@ -5,14 +5,34 @@ import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
 
 /**
- * The regions of a measurement by role, already checked against the image size: signal regions and
- * background (air) regions. The faces build it from ROI Manager regions or command-line rectangles.
+ * The regions of a measurement by role, already checked against the image size: signal regions,
+ * background (air) regions and the contrast region of a contrast-to-noise ratio (none, or one). The
+ * faces build it from ROI Manager regions or command-line rectangles.
  */
-public record Roles(List<Region> signal, List<Region> background) {
+public record Roles(List<Region> signal, List<Region> background, List<Region> contrast) {
 
     public Roles {
         signal = List.copyOf(signal);
         background = List.copyOf(background);
+        contrast = List.copyOf(contrast);
+    }
+
+    public Roles(List<Region> signal, List<Region> background) {
+        this(signal, background, List.of());
+    }
+
+    /** These roles with a contrast region (or none). */
+    public Roles withContrast(List<Region> regions) {
+        return new Roles(signal, background, regions);
+    }
+
+    /** The contrast region, or {@code null} when none is given. */
+    public Region oneContrast() throws InputException {
+        if (contrast.size() > 1) {
+            throw new InputException(contrast.size() + " regions have the contrast role: keep one contrast region "
+                    + "(the second tissue of the contrast-to-noise ratio)");
+        }
+        return contrast.isEmpty() ? null : contrast.get(0);
     }
 
     public static Roles of(Region signal, List<Region> background) {

@@ -8,7 +8,6 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import ij.IJ;
 import ij.ImagePlus;
 import ij.ImageStack;
-import ij.WindowManager;
 import ij.gui.Overlay;
 import ij.gui.Roi;
 import ij.gui.TextRoi;
@@ -17,7 +16,6 @@ import ij.plugin.frame.RoiManager;
 import ij.process.FloatProcessor;
 import ij.process.ShortProcessor;
 import java.awt.Color;
-import java.awt.Frame;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.HashSet;
@@ -49,19 +47,12 @@ class UserPathFindingsFijiTest {
 
     @BeforeEach
     void fresh() {
-        rm = RoiManager.getRoiManager();
-        rm.reset();
-        IJ.log("\\Clear");
+        rm = ImageJHarness.freshRoiManager();
     }
 
     @AfterEach
     void close() {
-        for (Frame f : WindowManager.getNonImageWindows()) {
-            if (f != rm && f != IJ.getInstance()) {
-                f.dispose();
-            }
-        }
-        WindowManager.closeAllWindows();
+        ImageJHarness.closeAllBut(rm);
     }
 
     private void add(Roi r, String name) {

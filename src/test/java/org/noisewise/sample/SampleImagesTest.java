@@ -37,6 +37,17 @@ class SampleImagesTest {
         }
     }
 
+    /** The two-tissue sample is what the generator makes, and its regions lie in the two gels. */
+    @Test
+    void committedTissueSampleMatchesTheGenerator() throws InputException {
+        ImagePlus imp = ImageFiles.open(DIR.resolve(TissueSample.FILE));
+        float[][] frames = TissueSample.generate();
+        assertEquals(TissueSample.REPEATS, imp.getStackSize());
+        for (int f = 0; f < frames.length; f++) {
+            assertArrayEquals(frames[f], ImagePlanes.calibratedPixels(imp, f + 1), "frame " + (f + 1));
+        }
+    }
+
     /** The bundled DICOM series folder holds exactly the files the generator writes, byte for byte. */
     @Test
     void committedDicomSeriesMatchesTheGenerator() throws IOException {
@@ -56,8 +67,12 @@ class SampleImagesTest {
     void truthFileMatchesTheCatalog() throws IOException {
         JsonObject root = JsonParser.parseString(Files.readString(DIR.resolve("truth.json"))).getAsJsonObject();
         JsonArray samples = root.getAsJsonArray("samples");
-        assertEquals(SampleCatalog.SAMPLES.size() + 1 + ProtocolSamples.ALL.size() + 1, samples.size(),
-                "the image samples, the stability series, the protocol series and the DICOM series");
+        assertEquals(SampleCatalog.SAMPLES.size() + 1 + ProtocolSamples.ALL.size() + 2, samples.size(),
+                "the image samples, the stability series, the protocol series, the two-tissue sample and the DICOM series");
+        JsonObject tissues = samples.get(samples.size() - 2).getAsJsonObject();
+        assertEquals(TissueSample.FILE, tissues.get("file").getAsString());
+        assertEquals(8.0, tissues.get("true_cnr").getAsDouble(), 0.0);
+        assertEquals(TissueSample.CONTRAST.toString(), tissues.get("contrast").getAsString());
         JsonObject dicom = samples.get(samples.size() - 1).getAsJsonObject();
         assertEquals(DicomSample.FOLDER + "/", dicom.get("file").getAsString());
         assertEquals(DicomSample.trueSnr(4), dicom.getAsJsonArray("true_snr_per_slice").get(3).getAsDouble());

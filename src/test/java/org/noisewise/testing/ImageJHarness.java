@@ -50,4 +50,22 @@ public final class ImageJHarness {
         commands.putAll(pluginsConfig());
         IJ.redirectErrorMessages();
     }
+
+    /** An empty ROI Manager and a clear Log, for a test's start. */
+    public static ij.plugin.frame.RoiManager freshRoiManager() {
+        ij.plugin.frame.RoiManager rm = ij.plugin.frame.RoiManager.getRoiManager();
+        rm.reset();
+        IJ.log("\\Clear");
+        return rm;
+    }
+
+    /** Closes every image and every window but the ROI Manager and ImageJ's own, for a test's end. */
+    public static void closeAllBut(ij.plugin.frame.RoiManager rm) {
+        for (java.awt.Frame f : ij.WindowManager.getNonImageWindows()) {
+            if (f != rm && f != IJ.getInstance()) {
+                f.dispose();
+            }
+        }
+        ij.WindowManager.closeAllWindows();
+    }
 }

@@ -167,7 +167,7 @@ final class Face {
             ov.add(marked(r, r.getStrokeColor() == null ? SIGNAL : r.getStrokeColor()));
         }
         if (!regions.isEmpty()) {
-            Font font = new Font("SansSerif", Font.PLAIN, Math.max(9, imp.getWidth() / 40));
+            Font font = new Font("SansSerif", Font.PLAIN, Math.max(6, Math.min(imp.getWidth(), imp.getHeight()) / 32));
             for (int i = 0; i < key.size(); i++) {
                 TextRoi t = new TextRoi(2, 2 + i * (font.getSize() + 2), key.get(i).label(), font);
                 t.setStrokeColor(key.get(i).colour());

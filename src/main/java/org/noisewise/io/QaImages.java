@@ -32,8 +32,8 @@ public final class QaImages {
     /** The colour key of the QA regions: the same in the report, the Fiji overlay and the ROI Manager. */
     public static final List<KeyEntry> KEY = List.of(
             new KeyEntry("signal region", Color.yellow, "yellow"),
-            new KeyEntry("ghosting regions (also background, where marked + bg)", Color.magenta, "magenta"),
-            new KeyEntry("background-only regions", Color.cyan, "cyan"),
+            new KeyEntry("ghosting (+ bg: also background)", Color.magenta, "magenta"),
+            new KeyEntry("background only", Color.cyan, "cyan"),
             new KeyEntry("uniformity high", Color.green, "green"),
             new KeyEntry("uniformity low", Color.orange, "orange"));
 

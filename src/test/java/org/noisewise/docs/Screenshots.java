@@ -186,7 +186,7 @@ public final class Screenshots {
         w.toFront();
         settle();
         Rectangle r = w.getBounds();
-        if (w instanceof ij.gui.ImageWindow iw && !(w instanceof ij.gui.PlotWindow) && iw.getCanvas() != null) {
+        if (w instanceof ij.gui.ImageWindow iw && iw.getCanvas() != null) {
             // the image itself: without a window manager, ImageJ draws the window's title over its info line
             java.awt.Point p = iw.getCanvas().getLocationOnScreen();
             java.awt.Dimension d = iw.getCanvas().getSize();

@@ -7,6 +7,7 @@ CP="target/classes:target/test-classes:$(cat target/cp.txt)"
 java -Xmx3g -cp "$CP" org.noisewise.bench.RepeatedMapsBenchmark
 java -Xmx3g -cp "$CP" org.noisewise.bench.RicianCorrectionBenchmark
 java -Xmx3g -cp "$CP" org.noisewise.bench.StabilityBenchmark
+java -Xmx3g -cp "$CP" org.noisewise.bench.AirFinderBenchmark
 mvn -B -q package -DskipTests
 java -Xmx3g -cp "$CP" org.noisewise.bench.LargeImageBenchmark target/noisewise.jar
 java -Xmx3g -cp "$CP" org.noisewise.bench.DicomSeriesBenchmark target/noisewise.jar

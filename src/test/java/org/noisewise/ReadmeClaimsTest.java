@@ -139,6 +139,34 @@ class ReadmeClaimsTest {
         }
     }
 
+    /** The automatic-air worked example: the README's command and its figures, and the corners' figures. */
+    @Test
+    void automaticAirWorkedExample() throws Exception {
+        String readme = readme();
+        assertTrue(readme.contains("java -jar target/noisewise.jar background sample-images/aster_head_ghost.tif "
+                + "--signal 24,56,16,16 --background auto"));
+        Run r = cli("background", "sample-images/aster_head_ghost.tif", "--signal", "24,56,16,16", "--background", "auto",
+                "--json");
+        assertEquals(0, r.status(), r.err());
+        JsonObject o = JsonParser.parseString(r.out()).getAsJsonObject();
+        String auto = String.format(Locale.ROOT, "finds %,d pixels of air (%.1f%% of the slice) and gives sigma %.3f "
+                        + "[%.3f, %.3f] and SNR %.2f\n[%.2f, %.2f]", o.getAsJsonObject("pixels").get("background").getAsInt(),
+                o.get("background_share").getAsDouble(), o.get("sigma").getAsDouble(),
+                o.getAsJsonArray("sigma_ci95").get(0).getAsDouble(), o.getAsJsonArray("sigma_ci95").get(1).getAsDouble(),
+                o.get("snr").getAsDouble(), o.getAsJsonArray("snr_ci95").get(0).getAsDouble(),
+                o.getAsJsonArray("snr_ci95").get(1).getAsDouble());
+        assertTrue(readme.contains(auto), "README lacks: " + auto);
+        Run c = cli("background", "sample-images/aster_head_ghost.tif", "--signal", "24,56,16,16", "--background",
+                "8,2,24,24", "--background", "96,2,24,24", "--background", "8,102,24,24", "--background", "96,102,24,24",
+                "--json");
+        JsonObject k = JsonParser.parseString(c.out()).getAsJsonObject();
+        String corners = String.format(Locale.ROOT, "sigma %.2f [%.2f, %.2f], SNR\n%.1f [%.1f, %.1f]",
+                k.get("sigma").getAsDouble(), k.getAsJsonArray("sigma_ci95").get(0).getAsDouble(),
+                k.getAsJsonArray("sigma_ci95").get(1).getAsDouble(), k.get("snr").getAsDouble(),
+                k.getAsJsonArray("snr_ci95").get(0).getAsDouble(), k.getAsJsonArray("snr_ci95").get(1).getAsDouble());
+        assertTrue(readme.contains(corners), "README lacks: " + corners);
+    }
+
     /** "On the bundled 24-repeat sample at a true SNR of 2, the raw mean is 14% high and the corrected one within 0.5%." */
     @Test
     void repeatsSampleStatement() throws Exception {

@@ -59,6 +59,14 @@ public class BackgroundCommand implements Callable<Integer> {
                     + "the background sigma, and a disagreement is reported.")
     Path second;
 
+    @Option(names = "--air-mask", paramLabel = "OUT.tif",
+            description = "With --background auto: write the air found as an 8-bit TIFF (255 = air), a slice per "
+                    + "measured slice.")
+    Path airMask;
+
+    @Option(names = "--force", description = "Replace an output file that exists.")
+    boolean force;
+
     @Mixin
     ProgressOption progressOption;
 
@@ -72,10 +80,12 @@ public class BackgroundCommand implements Callable<Integer> {
         PhaseDirection dir = phase == null ? null : parsePhase(phase);
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "background");
         progress.report(0.0, "reading " + image.getFileName());
+        AirMask.check(airMask, regions, force, image);
         ImagePlus imp = ImageFiles.open(image, echoOption.get());
         ImagePlus other = second == null ? null : ImageFiles.open(second, echoOption.get());
         Measurement m = measure(imp, image.getFileName().toString(), regions, channels, est, dir, slice, other,
                 progress);
+        AirMask.write(m, airMask, force, image);
         Output.notes(spec.commandLine().getErr(), "background", m.notes());
         Output.print(spec.commandLine().getOut(), m.rows(), json);
         return 0;

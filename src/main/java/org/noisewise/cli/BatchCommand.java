@@ -113,6 +113,9 @@ public class BatchCommand implements Callable<Integer> {
         if (method == Method.stability) {
             regions.refuseContrast("--method stability");
         }
+        if (method != Method.background) {
+            regions.refuseAutoAir("--method " + method);
+        }
         if (skip != null && skip < 0) {
             throw new InputException("--skip must be 0 or more frames, was " + skip);
         }

@@ -49,6 +49,11 @@ public class CheckCommand implements Callable<Integer> {
     @Option(names = "--force", description = "Replace an output file that exists.")
     boolean force;
 
+    @Option(names = "--air-mask", paramLabel = "OUT.tif",
+            description = "With --background auto: write the air found as an 8-bit TIFF (255 = air), a slice per "
+                    + "checked slice.")
+    Path airMask;
+
     @Option(names = "--phase", paramLabel = "ROW|COL",
             description = "Phase-encoding direction for the ghosting check (default: DICOM 0018,1312, else unknown).")
     String phase;
@@ -67,6 +72,7 @@ public class CheckCommand implements Callable<Integer> {
         }
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "check");
         progress.report(0.0, "reading " + image.getFileName());
+        AirMask.check(airMask, regions, force, image);
         ImagePlus imp = ImageFiles.open(image, echoOption.get());
         regions.refuseContrast("check");
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
@@ -77,6 +83,7 @@ public class CheckCommand implements Callable<Integer> {
         if (plot != null) {
             ImageWriter.savePng(m.plots().get(0).getImagePlus(), plot, force, image);
         }
+        AirMask.write(m, airMask, force, image);
         Output.notes(spec.commandLine().getErr(), "check", m.notes());
         Output.print(spec.commandLine().getOut(), m.rows(), json);
         return 0;

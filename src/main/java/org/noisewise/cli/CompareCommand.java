@@ -72,6 +72,7 @@ public class CompareCommand implements Callable<Integer> {
         ImagePlus a = ImageFiles.open(imageA, echoOption.get());
         ImagePlus b = ImageFiles.open(imageB, echoOption.get());
         regions.refuseContrast("compare");
+        regions.refuseAutoAir("compare");
         Roles roles = regions.resolve(a.getWidth(), a.getHeight());
         RegionOptions.require(roles, true, false, false);
         Measurement m = CompareMeasure.run(a, imageA.getFileName().toString(), b, imageB.getFileName().toString(), pa, pb,

@@ -81,6 +81,7 @@ public class CorrectCommand implements Callable<Integer> {
         progress.report(0.0, "reading " + image.getFileName());
         ImagePlus imp = ImageFiles.open(image, echoOption.get());
         regions.refuseContrast("correct");
+        regions.refuseAutoAir("correct");
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         if (sigma == 0 && roles.background().isEmpty()) {
             throw new InputException("give --sigma s, or --background regions (in air) to measure it on each slice");

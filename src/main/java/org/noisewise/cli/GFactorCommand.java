@@ -73,6 +73,7 @@ public class GFactorCommand implements Callable<Integer> {
         ImagePlus f = ImageFiles.open(full, echoOption.get());
         ImagePlus a = ImageFiles.open(accel, echoOption.get());
         regions.refuseContrast("gfactor");
+        regions.refuseAutoAir("gfactor");
         Roles roles = regions.resolve(f.getWidth(), f.getHeight());
         if (roles.signal().isEmpty() && map == null) {
             throw new InputException("nothing to do: give --signal x,y,w,h for the region's g-factor and/or --map "

@@ -18,6 +18,7 @@ import org.noisewise.sample.DicomSample;
 import org.noisewise.sample.SampleCatalog;
 import org.noisewise.sample.ProtocolSamples;
 import org.noisewise.sample.StabilitySample;
+import org.noisewise.sample.HeadSample;
 import org.noisewise.sample.TissueSample;
 import org.noisewise.sample.SampleCatalog.Rect;
 import org.noisewise.sample.SampleCatalog.Sample;
@@ -49,6 +50,8 @@ public class GenerateSamplesCommand implements Callable<Integer> {
             }
             writeTissues(out);
             truth.add(tissueTruth());
+            writeHead(out);
+            truth.add(headTruth());
             writeDicomSeries(out);
             truth.add(dicomTruth());
             JsonObject root = new JsonObject();
@@ -116,6 +119,12 @@ public class GenerateSamplesCommand implements Callable<Integer> {
         for (float[] frame : frames) {
             st.addSlice(new FloatProcessor(SampleCatalog.SIZE, SampleCatalog.SIZE, frame));
         }
+        writeDiskStack(out, file, st, description);
+    }
+
+    /** As above for a stack already made (e.g. 16-bit). */
+    private static void writeDiskStack(Path out, String file, ImageStack st, String description)
+            throws InputException {
         ImagePlus imp = new ImagePlus(file, st);
         imp.setProperty("Info", "Noisewise generated sample (invented scenario): " + description);
         imp.getCalibration().pixelWidth = SampleCatalog.PIXEL_MM;
@@ -127,6 +136,30 @@ public class GenerateSamplesCommand implements Callable<Integer> {
         if (!(st.getSize() > 1 ? saver.saveAsTiffStack(path) : saver.saveAsTiff(path))) {
             throw new InputException("could not write " + out.resolve(file));
         }
+    }
+
+    /** The head-like sample: one 16-bit slice with its ghost and zero-filled bands. */
+    static void writeHead(Path out) throws InputException {
+        ImageStack st = new ImageStack(HeadSample.SIZE, HeadSample.SIZE);
+        st.addSlice(new ij.process.ShortProcessor(HeadSample.SIZE, HeadSample.SIZE, HeadSample.generate(), null));
+        writeDiskStack(out, HeadSample.FILE, st, "Aster, head-shaped gel phantom with an 8% Nyquist ghost and "
+                + "zero-filled side bands");
+    }
+
+    private static JsonObject headTruth() {
+        JsonObject o = new JsonObject();
+        o.addProperty("file", HeadSample.FILE);
+        o.addProperty("description", "Aster, single channel, head-shaped gel phantom with an 8% Nyquist ghost (up and "
+                + "down) and zero-filled bands of 6 columns at each side, 16-bit, for automatic air");
+        o.addProperty("use", "automatic_air");
+        o.addProperty("frames", 1);
+        o.addProperty("channels", 1);
+        o.addProperty("amplitude", HeadSample.OUTER);
+        o.addProperty("sigma", HeadSample.SIGMA);
+        o.addProperty("true_snr", HeadSample.trueSnr());
+        o.addProperty("seed", HeadSample.SEED);
+        o.addProperty("signal", HeadSample.SIGNAL.toString());
+        return o;
     }
 
     private static JsonObject tissueTruth() {

@@ -20,7 +20,8 @@ public class RegionOptions {
     List<RegionSpec> signal = new ArrayList<>();
 
     @Option(names = "--background", paramLabel = "x,y,w,h", converter = RegionConverter.class,
-            description = "Background region in air; repeat for several regions (pooled).")
+            description = "Background region in air; repeat for several regions (pooled). Or auto: every pixel "
+                    + "of pure noise, found in each slice (background, check, batch).")
     List<RegionSpec> background = new ArrayList<>();
 
     @Option(names = "--contrast", paramLabel = "x,y,w,h", converter = RegionConverter.class,
@@ -56,13 +57,27 @@ public class RegionOptions {
         for (int i = 0; i < signal.size(); i++) {
             sig.add(signal.get(i).toRegion(signal.size() > 1 ? "signal " + (i + 1) : "signal", width, height));
         }
-        for (int i = 0; i < background.size(); i++) {
+        boolean auto = background.stream().anyMatch(RegionSpec::auto);
+        if (auto && (background.size() > 1 || !bg.isEmpty())) {
+            throw new InputException("--background auto stands alone: give either auto or background regions "
+                    + "(rectangles, or regions named 'background...' in the ROI file), not both");
+        }
+        for (int i = 0; i < background.size() && !auto; i++) {
             bg.add(background.get(i).toRegion("background " + (i + 1), width, height));
         }
         for (int i = 0; i < contrast.size(); i++) {
             con.add(contrast.get(i).toRegion(contrast.size() > 1 ? "contrast " + (i + 1) : "contrast", width, height));
         }
-        return new Roles(sig, bg, con);
+        Roles roles = new Roles(sig, bg, con);
+        return auto ? roles.withAutoAir() : roles;
+    }
+
+    /** Refuses {@code --background auto} where the method needs regions drawn by hand. */
+    void refuseAutoAir(String command) throws InputException {
+        if (background.stream().anyMatch(RegionSpec::auto)) {
+            throw new InputException("--background auto is not used by " + command + ": automatic air comes with the "
+                    + "background and check methods; give background regions as x,y,w,h");
+        }
     }
 
     /** Refuses {@code --contrast} where the method has no contrast-to-noise ratio (it would be ignored). */
@@ -82,7 +97,7 @@ public class RegionOptions {
             throw new InputException(roles.signal().size() + " signal regions were given: this method measures one; "
                     + "give a single --signal (or one region named signal in the ROI file)");
         }
-        if (background && roles.background().isEmpty()) {
+        if (background && roles.background().isEmpty() && !roles.autoAir()) {
             throw noBackground();
         }
     }

@@ -11,9 +11,19 @@ import picocli.CommandLine;
  */
 public record RegionSpec(boolean oval, int x, int y, int w, int h) {
 
+    /** {@code --background auto}: the air found in every slice, no rectangle. */
+    public static final RegionSpec AUTO = new RegionSpec(false, Integer.MIN_VALUE, Integer.MIN_VALUE, 0, 0);
+
+    public boolean auto() {
+        return x == Integer.MIN_VALUE && y == Integer.MIN_VALUE && w == 0 && h == 0;
+    }
+
     /** Parses the option text; a usage error (exit 2) when malformed. */
     public static RegionSpec parse(String text) {
         String t = text.trim();
+        if (t.equalsIgnoreCase("auto")) {
+            return AUTO;
+        }
         boolean oval = false;
         String lower = t.toLowerCase(Locale.ROOT);
         if (lower.startsWith("oval:")) {
@@ -40,11 +50,17 @@ public record RegionSpec(boolean oval, int x, int y, int w, int h) {
     }
 
     public Region toRegion(String name, int width, int height) throws InputException {
+        if (auto()) {
+            throw new InputException("'auto' is for --background only: give x,y,w,h for this region");
+        }
         return oval ? Region.oval(name, x, y, w, h, width, height) : Region.rectangle(name, x, y, w, h, width, height);
     }
 
     @Override
     public String toString() {
+        if (auto()) {
+            return "auto";
+        }
         return (oval ? "oval:" : "") + x + "," + y + "," + w + "," + h;
     }
 }

@@ -143,6 +143,7 @@ public class StabilityCommand implements Callable<Integer> {
     static StabilityMeasure.Outcome run(ImagePlus imp, String name, RegionOptions regions, StabilityMeasure.Options o,
                                         Path source, Progress progress) throws InputException {
         regions.refuseContrast("stability");
+        regions.refuseAutoAir("stability");
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         if (roles.signal().size() > 1) {
             throw new InputException("give one signal region for the stability figures (" + roles.signal().size()

@@ -39,9 +39,10 @@ public class BackgroundCheckCommand implements PlugIn {
         Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
             RegionRoles regions = RegionRoles.of(imp);
-            Face.requireRegions(regions, "The check needs background regions in air.");
             GenericDialog gd = new GenericDialog(TITLE);
             DialogFields.addChannels(gd);
+            gd.addChoice("Background:", new String[] {BackgroundSnrCommand.AIR_REGIONS, BackgroundSnrCommand.AIR_AUTO},
+                    regions.isEmpty() ? BackgroundSnrCommand.AIR_AUTO : BackgroundSnrCommand.AIR_REGIONS);
             DialogFields.addPhase(gd, imp);
             gd.addCheckbox("Plot histogram and fit", true);
             gd.addFileField("PNG file for the plot (optional):", "", 30);
@@ -54,6 +55,7 @@ public class BackgroundCheckCommand implements PlugIn {
                 return;
             }
             Integer channels = DialogFields.parseChannels(gd.getNextString());
+            boolean auto = BackgroundSnrCommand.AIR_AUTO.equals(gd.getNextChoice());
             PhaseDirection phase = DialogFields.nextPhase(gd);
             boolean plot = gd.getNextBoolean();
             String png = gd.getNextString().trim();
@@ -63,10 +65,14 @@ public class BackgroundCheckCommand implements PlugIn {
             if (!png.isEmpty()) {
                 ImageWriter.checkWritable(Path.of(png), replace, DialogFields.sourceFile(imp));
             }
-            List<Roi> signal = regions.signalRegions();
-            List<Roi> background = regions.backgroundRegions();
-            Measurement m = measure(imp, imp.getCurrentSlice(), signal, background,
+            List<Roi> signal = auto ? regions.withRole(org.noisewise.io.RoleNames.SIGNAL) : regions.signalRegions();
+            List<Roi> background = auto ? List.of() : regions.backgroundRegions();
+            Measurement m = auto ? measureAutomaticAir(imp, imp.getCurrentSlice(), signal,
+                    new CheckMeasure.Options(channels, phase)) : measure(imp, imp.getCurrentSlice(), signal, background,
                     new CheckMeasure.Options(channels, phase));
+            if (auto) {
+                background = Face.airRegions(m, imp);
+            }
             Face.show(TITLE, imp, m.rows(), append);
             Face.log(TITLE, m.notes());
             if (!png.isEmpty()) {
@@ -80,8 +86,7 @@ public class BackgroundCheckCommand implements PlugIn {
                     p.getImagePlus().setTitle(Face.uniqueTitle(p.getTitle()));
                 }
             }
-            Face.overlay(imp, background.contains(signal.isEmpty() ? null : signal.get(0)) ? List.of() : signal,
-                    background);
+            Face.overlay(imp, signal.isEmpty() || background.contains(signal.get(0)) ? List.of() : signal, background);
             Face.reactivate(imp);
         });
     }
@@ -101,12 +106,30 @@ public class BackgroundCheckCommand implements PlugIn {
         return new Output(null, Tables.toResultsTable(m.rows()), m.plots().get(0));
     }
 
+    /**
+     * Checks slice {@code slice} (1-based) on the air found automatically (no background regions drawn);
+     * a signal region, when given, is never taken as air. Never modifies {@code imp}.
+     */
+    public static Output processAutomaticAir(ImagePlus imp, int slice, List<Roi> signal, CheckMeasure.Options options)
+            throws InputException {
+        Measurement m = measureAutomaticAir(imp, slice, signal, options);
+        return new Output(null, Tables.toResultsTable(m.rows()), m.plots().get(0));
+    }
+
+    static Measurement measureAutomaticAir(ImagePlus imp, int slice, List<Roi> signal, CheckMeasure.Options options)
+            throws InputException {
+        Face.checkImage(imp, TITLE);
+        List<Roi> sig = signal == null || signal.isEmpty() ? List.of() : signal.subList(0, 1);
+        return CheckMeasure.run(imp, imp.getTitle(), RegionRoles.roles(sig, List.of(), imp).withAutoAir(), options,
+                new int[] {slice}, ImageJProgress.INSTANCE);
+    }
+
     static Measurement measure(ImagePlus imp, int slice, List<Roi> signal, List<Roi> background,
                                CheckMeasure.Options options) throws InputException {
         Face.checkImage(imp, TITLE);
         if (background == null || background.isEmpty()) {
             throw new InputException("There is no background region: add regions in air to the ROI Manager and name "
-                    + "them 'background', 'bg', 'air' or 'noise'.");
+                    + "them 'background', 'bg', 'air' or 'noise', or choose 'Background: Automatic (all air)'.");
         }
         List<Roi> sig = signal == null || signal.isEmpty() || background.contains(signal.get(0)) ? List.of()
                 : signal.subList(0, 1);

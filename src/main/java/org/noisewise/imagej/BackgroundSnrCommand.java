@@ -37,6 +37,8 @@ public class BackgroundSnrCommand implements PlugIn {
     static final String BY_NAME = "Region names";
     static final String BY_SELECTION = "Selection is signal";
     static final String NONE = "None";
+    static final String AIR_REGIONS = "ROI Manager regions";
+    static final String AIR_AUTO = "Automatic (all air)";
 
     @Override
     public void run(String arg) {
@@ -52,6 +54,7 @@ public class BackgroundSnrCommand implements PlugIn {
             boolean named = regions.anyNamed(org.noisewise.io.RoleNames.SIGNAL);
             gd.addChoice("Roles from:", new String[] {BY_NAME, BY_SELECTION},
                     !named && regions.selection != null ? BY_SELECTION : BY_NAME);
+            gd.addChoice("Background:", new String[] {AIR_REGIONS, AIR_AUTO}, AIR_REGIONS);
             DialogFields.addPhase(gd, imp);
             gd.addChoice("Second acquisition (optional check):", DialogFields.otherImages(imp, NONE), NONE);
             regions.addFields(gd);
@@ -65,6 +68,7 @@ public class BackgroundSnrCommand implements PlugIn {
             SigmaEstimator estimator = SigmaEstimator.parse(gd.getNextChoice());
             boolean all = ALL.equals(gd.getNextChoice());
             boolean bySelection = BY_SELECTION.equals(gd.getNextChoice());
+            boolean auto = AIR_AUTO.equals(gd.getNextChoice());
             PhaseDirection phase = DialogFields.nextPhase(gd);
             String secondTitle = gd.getNextChoice();
             regions.readFields(gd);
@@ -77,7 +81,9 @@ public class BackgroundSnrCommand implements PlugIn {
                             + "choose 'Roles from: Region names'.");
                 }
                 signal = regions.selection;
-                background.addAll(regions.withoutRole(org.noisewise.io.RoleNames.CONTRAST));
+                if (!auto) {
+                    background.addAll(regions.withoutRole(org.noisewise.io.RoleNames.CONTRAST));
+                }
             } else {
                 List<Roi> sig = regions.withRole(org.noisewise.io.RoleNames.SIGNAL);
                 if (sig.size() > 1) {
@@ -85,15 +91,18 @@ public class BackgroundSnrCommand implements PlugIn {
                             + "others, or give them another role).");
                 }
                 signal = sig.isEmpty() ? null : sig.get(0);
-                background.addAll(regions.withRole(org.noisewise.io.RoleNames.BACKGROUND));
+                if (!auto) {
+                    background.addAll(regions.withRole(org.noisewise.io.RoleNames.BACKGROUND));
+                }
             }
             ImagePlus second = NONE.equals(secondTitle) ? null : WindowManager.getImage(secondTitle);
             Roi contrast = regions.contrastRegion();
-            Measurement m = measure(imp, signal, background, contrast, new BackgroundMeasure.Options(channels,
-                    estimator, phase), all, second);
+            BackgroundMeasure.Options o = new BackgroundMeasure.Options(channels, estimator, phase);
+            Measurement m = auto ? measureAutomaticAir(imp, signal, contrast, o, all, second)
+                    : measure(imp, signal, background, contrast, o, all, second);
             Face.show(TITLE, imp, m.rows(), append);
             Face.log(TITLE, m.notes());
-            Face.overlay(imp, List.of(signal), background, contrast);
+            Face.overlay(imp, List.of(signal), auto ? Face.airRegions(m, imp) : background, contrast);
             Face.reactivate(imp);
         });
     }
@@ -116,6 +125,28 @@ public class BackgroundSnrCommand implements PlugIn {
         return Tables.toResultsTable(measure(imp, signal, background, contrast, o, allSlices, second).rows());
     }
 
+    /**
+     * The background method with the air found automatically in every measured slice (no background
+     * regions drawn); {@code contrast} may be null. Never modifies {@code imp}.
+     */
+    public static ResultsTable processAutomaticAir(ImagePlus imp, Roi signal, Roi contrast, BackgroundMeasure.Options o,
+                                                   boolean allSlices) throws InputException {
+        return Tables.toResultsTable(measureAutomaticAir(imp, signal, contrast, o, allSlices, null).rows());
+    }
+
+    /** The measurement behind {@link #processAutomaticAir}, with its notes and the air mask image. */
+    public static Measurement measureAutomaticAir(ImagePlus imp, Roi signal, Roi contrast, BackgroundMeasure.Options o,
+                                                  boolean allSlices, ImagePlus second) throws InputException {
+        Face.checkImage(imp, TITLE);
+        if (signal == null) {
+            throw new InputException("There is no signal region: name a ROI Manager region 'signal', or draw a "
+                    + "selection and choose 'Roles from: Selection is signal'.");
+        }
+        int[] planes = allSlices ? Planes.all(imp) : new int[] {imp.getCurrentSlice()};
+        return BackgroundMeasure.run(imp, imp.getTitle(), RegionRoles.roles(List.of(signal), List.of(), contrast, imp)
+                .withAutoAir(), o, planes, second, ImageJProgress.INSTANCE);
+    }
+
     /** The measurement behind {@link #process}, with its notes. */
     public static Measurement measure(ImagePlus imp, Roi signal, List<Roi> background, Roi contrast,
                                       BackgroundMeasure.Options o, boolean allSlices, ImagePlus second)
@@ -127,7 +158,7 @@ public class BackgroundSnrCommand implements PlugIn {
         }
         if (background.isEmpty()) {
             throw new InputException("There is no background region: add regions in air to the ROI Manager and name "
-                    + "them 'background', 'bg', 'air' or 'noise'.");
+                    + "them 'background', 'bg', 'air' or 'noise', or choose 'Background: Automatic (all air)'.");
         }
         int[] planes = allSlices ? Planes.all(imp) : new int[] {imp.getCurrentSlice()};
         return BackgroundMeasure.run(imp, imp.getTitle(), RegionRoles.roles(List.of(signal), background, contrast, imp),

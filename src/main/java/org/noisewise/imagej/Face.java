@@ -129,6 +129,25 @@ final class Face {
         overlay(imp, signal, background, null);
     }
 
+    /**
+     * The automatic air of a measurement (its air mask image, first measured slice) as one ROI for the
+     * overlay, or none.
+     */
+    static List<Roi> airRegions(org.noisewise.measure.Measurement m, ImagePlus imp) {
+        for (ImagePlus mask : m.images()) {
+            if (mask.getTitle().endsWith(" air mask")) {
+                ij.process.ImageProcessor ip = mask.getStack().getProcessor(1).duplicate();
+                ip.setThreshold(255, 255, ij.process.ImageProcessor.NO_LUT_UPDATE);
+                Roi r = ij.plugin.filter.ThresholdToSelection.run(new ImagePlus("air", ip));
+                if (r != null) {
+                    r.setName("air (automatic)");
+                    return List.of(r);
+                }
+            }
+        }
+        return List.of();
+    }
+
     /** The regions in their role colours with a key; {@code contrast} (red) may be null. */
     static void overlay(ImagePlus imp, List<Roi> signal, List<Roi> background, Roi contrast) {
         List<Roi> all = new java.util.ArrayList<>();

@@ -49,7 +49,10 @@ public final class BackgroundMeasure {
                                   ImagePlus second, Progress progress) throws InputException {
         ImagePlanes.requireGrayscale(imp);
         Region signal = roles.oneSignal();
-        List<Region> background = roles.backgrounds();
+        Air air = new Air(roles, imp.getWidth(), imp.getHeight());
+        if (!roles.autoAir()) {
+            roles.backgrounds();
+        }
         Region contrast = roles.oneContrast();
         if (second != null) {
             ImagePlanes.requireGrayscale(second);
@@ -71,6 +74,7 @@ public final class BackgroundMeasure {
             int n = planes[k];
             progress.report((double) k / planes.length, "SNR (background): slice " + n);
             float[] px = ImagePlanes.calibratedPixels(imp, n);
+            List<Region> background = air.regions(px, n, o.channels(), BackgroundValues.storage(imp, n), notes);
             BackgroundSnr.Options po = new BackgroundSnr.Options(o.channels(), o.estimator(), phase,
                     BackgroundValues.storage(imp, n));
             if (second != null) {
@@ -84,7 +88,7 @@ public final class BackgroundMeasure {
                                 + "(95%% interval %.2f-%.2f), %d used", n, r.diagnosis().channelEstimate().channels(),
                         r.diagnosis().channelEstimate().low(), r.diagnosis().channelEstimate().high(), r.channels()));
             }
-            ResultRow row = BackgroundSnrRows.row(title, n, unit, r);
+            ResultRow row = air.addShare(BackgroundSnrRows.row(title, n, unit, r));
             if (contrast != null) {
                 row = CnrRows.with(row, Contrast.background(px, w, signal, contrast, r), contrast.name(), unit);
             }
@@ -92,6 +96,7 @@ public final class BackgroundMeasure {
         }
         progress.report(1.0, "");
         Acquisition.addEfficiency(rows, imp, notes);
-        return new Measurement(rows, List.of(), List.of(), notes);
+        ImagePlus mask = air.maskImage(title);
+        return new Measurement(rows, mask == null ? List.of() : List.of(mask), List.of(), notes);
     }
 }

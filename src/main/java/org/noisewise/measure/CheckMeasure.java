@@ -33,7 +33,10 @@ public final class CheckMeasure {
     public static Measurement run(ImagePlus imp, String title, Roles roles, Options o, int[] planes,
                                   Progress progress) throws InputException {
         ImagePlanes.requireGrayscale(imp);
-        List<Region> background = roles.backgrounds();
+        Air air = new Air(roles, imp.getWidth(), imp.getHeight());
+        if (!roles.autoAir()) {
+            roles.backgrounds();
+        }
         Region signal = roles.signal().isEmpty() ? null : roles.signal().get(0);
         List<String> notes = Measurement.imageNotes(imp);
         PhaseDirection phase = o.phase();
@@ -50,15 +53,17 @@ public final class CheckMeasure {
             int n = planes[k];
             progress.report((double) k / planes.length, "Background check: slice " + n);
             float[] px = ImagePlanes.calibratedPixels(imp, n);
+            List<Region> background = air.regions(px, n, o.channels(), BackgroundValues.storage(imp, n), notes);
             BackgroundNoise noise = BackgroundNoise.measure(px, imp.getWidth(), background);
             BackgroundDiagnostics.Diagnosis d = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(),
                     signal, background, noise, new BackgroundDiagnostics.Options(o.channels(), phase,
                             BackgroundValues.storage(imp, n)));
-            rows.add(MethodRows.check(title, n, unit, d));
+            rows.add(air.addShare(MethodRows.check(title, n, unit, d)));
             plots.add(HistogramPlot.build("Background histogram - " + title + (planes.length > 1 ? " slice " + n : ""),
                     noise.values(), d, unit));
         }
         progress.report(1.0, "");
-        return new Measurement(rows, List.of(), plots, notes);
+        ImagePlus mask = air.maskImage(title);
+        return new Measurement(rows, mask == null ? List.of() : List.of(mask), plots, notes);
     }
 }

@@ -6,24 +6,37 @@ import org.noisewise.estimate.Region;
 
 /**
  * The regions of a measurement by role, already checked against the image size: signal regions,
- * background (air) regions and the contrast region of a contrast-to-noise ratio (none, or one). The
- * faces build it from ROI Manager regions or command-line rectangles.
+ * background (air) regions, or automatic air (found per slice), and the contrast region of a
+ * contrast-to-noise ratio (none, or one). The faces build it from ROI Manager regions or
+ * command-line rectangles.
  */
-public record Roles(List<Region> signal, List<Region> background, List<Region> contrast) {
+public record Roles(List<Region> signal, List<Region> background, List<Region> contrast, boolean autoAir) {
 
     public Roles {
         signal = List.copyOf(signal);
         background = List.copyOf(background);
         contrast = List.copyOf(contrast);
+        if (autoAir && !background.isEmpty()) {
+            throw new IllegalArgumentException("automatic air replaces background regions");
+        }
     }
 
     public Roles(List<Region> signal, List<Region> background) {
-        this(signal, background, List.of());
+        this(signal, background, List.of(), false);
+    }
+
+    public Roles(List<Region> signal, List<Region> background, List<Region> contrast) {
+        this(signal, background, contrast, false);
     }
 
     /** These roles with a contrast region (or none). */
     public Roles withContrast(List<Region> regions) {
-        return new Roles(signal, background, regions);
+        return new Roles(signal, background, regions, autoAir);
+    }
+
+    /** These roles with the background found automatically in every slice ({@code AirFinder}), no regions drawn. */
+    public Roles withAutoAir() {
+        return new Roles(signal, List.of(), contrast, true);
     }
 
     /** The contrast region, or {@code null} when none is given. */

@@ -56,6 +56,19 @@ public final class Screenshots {
         capture(startingWith("Background histogram"), "check-plot.png");
         capture(WindowManager.getWindow(org.noisewise.imagej.BackgroundCheckCommand.tableTitle(one)), "check-table.png");
 
+        ImagePlus head = open(org.noisewise.sample.HeadSample.FILE);
+        rm.reset();
+        add(rm, org.noisewise.sample.HeadSample.SIGNAL, "signal");
+        head.show();
+        IJ.run(head, "Set... ", "zoom=300");
+        IJ.run(head, "SNR (Background Regions)...", "channels=1 estimator=[Maximum likelihood] "
+                + "slices=[Current slice] background=[Automatic (all air)]");
+        rm.runCommand(head, "Show None");
+        settle();
+        capture(head.getWindow(), "automatic-air.png");
+        head.changes = false;
+        head.close();
+
         ImagePlus a = open("aster_disk_acq1.tif");
         ImagePlus b = open("aster_disk_acq2.tif");
         a.show();

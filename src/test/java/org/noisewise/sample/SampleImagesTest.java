@@ -48,6 +48,14 @@ class SampleImagesTest {
         }
     }
 
+    /** The head-like sample is what the generator makes (16-bit values). */
+    @Test
+    void committedHeadSampleMatchesTheGenerator() throws InputException {
+        ImagePlus imp = ImageFiles.open(DIR.resolve(HeadSample.FILE));
+        assertEquals(16, imp.getBitDepth());
+        assertArrayEquals(HeadSample.generate(), (short[]) imp.getProcessor().getPixels());
+    }
+
     /** The bundled DICOM series folder holds exactly the files the generator writes, byte for byte. */
     @Test
     void committedDicomSeriesMatchesTheGenerator() throws IOException {
@@ -67,9 +75,13 @@ class SampleImagesTest {
     void truthFileMatchesTheCatalog() throws IOException {
         JsonObject root = JsonParser.parseString(Files.readString(DIR.resolve("truth.json"))).getAsJsonObject();
         JsonArray samples = root.getAsJsonArray("samples");
-        assertEquals(SampleCatalog.SAMPLES.size() + 1 + ProtocolSamples.ALL.size() + 2, samples.size(),
-                "the image samples, the stability series, the protocol series, the two-tissue sample and the DICOM series");
-        JsonObject tissues = samples.get(samples.size() - 2).getAsJsonObject();
+        assertEquals(SampleCatalog.SAMPLES.size() + 1 + ProtocolSamples.ALL.size() + 3, samples.size(),
+                "the image samples, the stability series, the protocol series, the two-tissue and head samples and the "
+                        + "DICOM series");
+        JsonObject head = samples.get(samples.size() - 2).getAsJsonObject();
+        assertEquals(HeadSample.FILE, head.get("file").getAsString());
+        assertEquals(HeadSample.SIGMA, head.get("sigma").getAsDouble(), 0.0);
+        JsonObject tissues = samples.get(samples.size() - 3).getAsJsonObject();
         assertEquals(TissueSample.FILE, tissues.get("file").getAsString());
         assertEquals(8.0, tissues.get("true_cnr").getAsDouble(), 0.0);
         assertEquals(TissueSample.CONTRAST.toString(), tissues.get("contrast").getAsString());

@@ -1,0 +1,160 @@
+package org.noisewise.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertNotEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.google.gson.JsonArray;
+import com.google.gson.JsonObject;
+import com.google.gson.JsonParser;
+import ij.IJ;
+import ij.ImagePlus;
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.noisewise.sample.HeadSample;
+
+/**
+ * Issue 21 on the command line, as a user runs it: {@code --background auto} on the bundled head-like
+ * sample (generated: sigma 4, true SNR 25 in the signal region, an 8% Nyquist ghost up and down,
+ * zero-filled side bands, 16-bit) and on the 8-channel disk sample (sigma 5, true SNR 24).
+ */
+class AutomaticAirCliTest {
+
+    @TempDir
+    Path dir;
+
+    private static final String HEAD = "sample-images/" + HeadSample.FILE;
+    private static final String SIGNAL = HeadSample.SIGNAL.toString();
+
+    private static JsonObject json(CliRunner.Result r) {
+        assertEquals(0, r.status(), r.err());
+        return JsonParser.parseString(r.out()).getAsJsonObject();
+    }
+
+    private static boolean holds(JsonArray ci, double truth) {
+        return ci.get(0).getAsDouble() <= truth && truth <= ci.get(1).getAsDouble();
+    }
+
+    @Test
+    void headSampleWithGhostsAndZeroBands() {
+        CliRunner.Result r = CliRunner.run("background", HEAD, "--signal", SIGNAL, "--background", "auto", "--json");
+        JsonObject o = json(r);
+        assertTrue(holds(o.getAsJsonArray("sigma_ci95"), HeadSample.SIGMA), o.get("sigma").toString());
+        assertTrue(holds(o.getAsJsonArray("snr_ci95"), HeadSample.trueSnr()), o.get("snr").toString());
+        assertEquals("valid", o.get("verdict").getAsString());
+        int air = o.getAsJsonObject("pixels").get("background").getAsInt();
+        assertTrue(air > 2000, "air pixels " + air);
+        assertEquals(100.0 * air / (128 * 128), o.get("background_share").getAsDouble(), 1e-9);
+        assertTrue(r.err().contains("automatic air: " + air + " pixels of pure noise"), r.err());
+        // the corners drawn by hand take in the ghost: sigma too high, its interval misses the truth
+        JsonObject corners = json(CliRunner.run("background", HEAD, "--signal", SIGNAL, "--background", "8,2,24,24",
+                "--background", "96,2,24,24", "--background", "8,102,24,24", "--background", "96,102,24,24", "--json"));
+        assertFalse(holds(corners.getAsJsonArray("sigma_ci95"), HeadSample.SIGMA));
+        assertTrue(corners.get("sigma").getAsDouble() > 1.2 * HeadSample.SIGMA);
+    }
+
+    @Test
+    void eightChannelDiskAndTheCheck() {
+        JsonObject o = json(CliRunner.run("background", "sample-images/bramble_disk_8ch.tif", "--signal",
+                "49,49,30,30", "--background", "auto", "--channels", "8", "--json"));
+        assertTrue(holds(o.getAsJsonArray("sigma_ci95"), 5.0), o.get("sigma").toString());
+        assertTrue(holds(o.getAsJsonArray("snr_ci95"), 24.0), o.get("snr").toString());
+        // narrower than the four corners: all the air against 2,304 pixels
+        JsonObject corners = json(CliRunner.run("background", "sample-images/bramble_disk_8ch.tif", "--signal",
+                "49,49,30,30", "--background", "2,2,24,24", "--background", "102,2,24,24", "--background",
+                "2,102,24,24", "--background", "102,102,24,24", "--channels", "8", "--json"));
+        double wAuto = o.getAsJsonArray("sigma_ci95").get(1).getAsDouble() - o.getAsJsonArray("sigma_ci95").get(0)
+                .getAsDouble();
+        double wCorners = corners.getAsJsonArray("sigma_ci95").get(1).getAsDouble()
+                - corners.getAsJsonArray("sigma_ci95").get(0).getAsDouble();
+        assertTrue(wAuto < 0.7 * wCorners, wAuto + " against " + wCorners);
+        JsonObject check = json(CliRunner.run("check", "sample-images/bramble_disk_8ch.tif", "--background", "auto",
+                "--channels", "8", "--json"));
+        assertEquals("valid", check.get("verdict").getAsString());
+        assertTrue(check.has("background_share"));
+    }
+
+    @Test
+    void airMaskFile() throws IOException {
+        Path mask = dir.resolve("air.tif");
+        CliRunner.Result r = CliRunner.run("background", HEAD, "--signal", SIGNAL, "--background", "auto", "--air-mask",
+                mask.toString(), "--json");
+        JsonObject o = json(r);
+        ImagePlus m = IJ.openImage(mask.toString());
+        assertEquals(8, m.getBitDepth());
+        byte[] b = (byte[]) m.getProcessor().getPixels();
+        int air = 0;
+        for (byte v : b) {
+            assertTrue(v == 0 || v == (byte) 255);
+            air += v == (byte) 255 ? 1 : 0;
+        }
+        assertEquals(o.getAsJsonObject("pixels").get("background").getAsInt(), air);
+        var s = HeadSample.SIGNAL;
+        for (int y = s.y(); y < s.y() + s.h(); y++) {
+            for (int x = s.x(); x < s.x() + s.w(); x++) {
+                assertEquals(0, b[y * 128 + x], "the signal region is never air");
+            }
+        }
+        // no overwrite without --force, the first file kept
+        long size = Files.size(mask);
+        CliRunner.Result again = CliRunner.run("background", HEAD, "--signal", SIGNAL, "--background", "auto",
+                "--air-mask", mask.toString());
+        assertNotEquals(0, again.status());
+        assertTrue(again.err().contains("--force"), again.err());
+        assertEquals(size, Files.size(mask));
+        try (var files = Files.list(dir)) {
+            assertEquals(List.of(mask), files.toList(), "no temporary files left");
+        }
+    }
+
+    @Test
+    void batchWithAutomaticAir() throws IOException {
+        Path folder = Files.createDirectories(dir.resolve("exports"));
+        Files.copy(Path.of(HEAD), folder.resolve("a.tif"));
+        Files.copy(Path.of("sample-images/aster_disk_1ch.tif"), folder.resolve("b.tif"));
+        CliRunner.Result r = CliRunner.run("batch", folder.toString(), "--method", "background", "--signal", SIGNAL,
+                "--background", "auto", "--json");
+        assertEquals(0, r.status(), r.err());
+        JsonArray rows = JsonParser.parseString(r.out()).getAsJsonArray();
+        assertEquals(2, rows.size());
+        for (var row : rows) {
+            assertTrue(row.getAsJsonObject().get("background_share").getAsDouble() > 10, row.toString());
+        }
+    }
+
+    /** Bad input: one line on stderr each, nothing written. */
+    @Test
+    void refusals() throws IOException {
+        CliRunner.Result mixed = CliRunner.run("background", HEAD, "--signal", SIGNAL, "--background", "auto",
+                "--background", "2,2,10,10");
+        assertNotEquals(0, mixed.status());
+        assertTrue(mixed.err().contains("--background auto stands alone"), mixed.err());
+        CliRunner.Result maskOnly = CliRunner.run("background", HEAD, "--signal", SIGNAL, "--background", "2,2,20,20",
+                "--air-mask", dir.resolve("m.tif").toString());
+        assertNotEquals(0, maskOnly.status());
+        assertTrue(maskOnly.err().contains("add --background auto"), maskOnly.err());
+        assertFalse(Files.exists(dir.resolve("m.tif")));
+        CliRunner.Result compare = CliRunner.run("compare", HEAD, HEAD, "--signal", SIGNAL, "--background", "auto");
+        assertNotEquals(0, compare.status());
+        assertTrue(compare.err().contains("--background auto is not used by compare"), compare.err());
+        // an object filling the field of view: too little air, said with how much and what to do
+        Path full = dir.resolve("full.tif");
+        float[] p = new float[64 * 64];
+        java.util.SplittableRandom rng = new java.util.SplittableRandom(4);
+        for (int i = 0; i < p.length; i++) {
+            p[i] = (float) (100 + 5 * rng.nextGaussian());
+        }
+        IJ.saveAsTiff(new ImagePlus("full", new ij.process.FloatProcessor(64, 64, p)), full.toString());
+        CliRunner.Result none = CliRunner.run("background", full.toString(), "--signal", "10,10,20,20", "--background",
+                "auto");
+        assertNotEquals(0, none.status());
+        assertEquals(1, none.err().strip().lines().count(), none.err());
+        assertTrue(none.err().contains("automatic air found only") && none.err().contains("difference method"),
+                none.err());
+    }
+}

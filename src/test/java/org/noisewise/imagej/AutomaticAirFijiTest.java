@@ -1,0 +1,105 @@
+package org.noisewise.imagej;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotNull;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.google.gson.JsonObject;
+import com.google.gson.JsonParser;
+import ij.IJ;
+import ij.ImagePlus;
+import ij.gui.Overlay;
+import ij.gui.Roi;
+import ij.measure.ResultsTable;
+import ij.plugin.frame.RoiManager;
+import java.awt.Color;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Path;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.noisewise.cli.NoisewiseCli;
+import org.noisewise.io.ImageFiles;
+import org.noisewise.sample.HeadSample;
+import org.noisewise.testing.ImageJHarness;
+import org.noisewise.testing.TestImages;
+
+/**
+ * Issue 21 in Fiji: "Background: Automatic (all air)" in SNR (Background Regions) and the Background
+ * Noise Check, run as a macro runs them on the bundled head-like sample (generated: sigma 4, true SNR
+ * 25), with the same figures as the command line, the air drawn as an overlay, and the image and the
+ * ROI Manager untouched.
+ */
+class AutomaticAirFijiTest {
+
+    private RoiManager rm;
+
+    @BeforeAll
+    static void startImageJ() {
+        ImageJHarness.start();
+    }
+
+    @BeforeEach
+    void fresh() {
+        rm = ImageJHarness.freshRoiManager();
+    }
+
+    @AfterEach
+    void close() {
+        ImageJHarness.closeAllBut(rm);
+    }
+
+    private static JsonObject cli(String... args) {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        assertEquals(0, NoisewiseCli.execute(args, new PrintWriter(out), new PrintWriter(err)), err.toString());
+        return JsonParser.parseString(out.toString()).getAsJsonObject();
+    }
+
+    @Test
+    void backgroundMethodWithAutomaticAir() throws Exception {
+        ImagePlus imp = ImageFiles.open(Path.of("sample-images", HeadSample.FILE));
+        imp.show();
+        var s = HeadSample.SIGNAL;
+        Roi sig = new Roi(s.x(), s.y(), s.w(), s.h());
+        sig.setName("signal");
+        rm.addRoi(sig);
+        String before = TestImages.checksum(imp);
+        IJ.run(imp, "SNR (Background Regions)...", "channels=1 estimator=[Maximum likelihood] slices=[Current slice] "
+                + "background=[Automatic (all air)]");
+        ResultsTable rt = ResultsTable.getResultsTable(BackgroundSnrCommand.tableTitle(imp));
+        assertNotNull(rt);
+        JsonObject o = cli("background", "sample-images/" + HeadSample.FILE, "--signal", s.toString(), "--background",
+                "auto", "--json");
+        assertEquals(o.get("snr").getAsDouble(), rt.getValue("SNR (corrected)", 0), 1e-9);
+        assertEquals(o.get("sigma").getAsDouble(), rt.getValue("Sigma [a.u.]", 0), 1e-9);
+        assertEquals(o.get("background_share").getAsDouble(), rt.getValue("Air share [%]", 0), 1e-9);
+        double low = rt.getValue("SNR 95% low", 0);
+        double high = rt.getValue("SNR 95% high", 0);
+        assertTrue(low <= HeadSample.trueSnr() && HeadSample.trueSnr() <= high, low + " - " + high);
+        assertTrue(IJ.getLog().contains("automatic air"), IJ.getLog());
+        assertEquals(before, TestImages.checksum(imp));
+        assertEquals(1, rm.getCount());
+        Overlay ov = imp.getOverlay();
+        assertNotNull(ov);
+        boolean air = false;
+        for (Roi r : ov.toArray()) {
+            air |= "air (automatic)".equals(r.getName()) && Color.cyan.equals(r.getStrokeColor());
+        }
+        assertTrue(air, "the air found drawn in the background colour");
+    }
+
+    @Test
+    void checkWithAnEmptyRoiManager() throws Exception {
+        ImagePlus imp = ImageFiles.open(Path.of("sample-images", "bramble_disk_8ch.tif"));
+        imp.show();
+        IJ.run(imp, "Background Noise Check...", "channels=8 background=[Automatic (all air)]");
+        ResultsTable rt = ResultsTable.getResultsTable(BackgroundCheckCommand.tableTitle(imp));
+        assertNotNull(rt);
+        assertEquals("valid", rt.getStringValue("Verdict", 0));
+        assertTrue(rt.getValue("Air share [%]", 0) > 40);
+        assertEquals(0, rm.getCount());
+    }
+}

@@ -157,4 +157,22 @@ class AutomaticAirCliTest {
         assertTrue(none.err().contains("automatic air found only") && none.err().contains("difference method"),
                 none.err());
     }
+
+    /**
+     * Real files (open data from Debian's python3-pydicom and python3-nibabel, see the opendata README):
+     * neither holds usable air, and automatic air says so instead of measuring structure as noise —
+     * pydicom's MR_small is a 64 x 64 crop of a head that fills the field of view; nibabel's functional.nii
+     * has slices too small to hold 500 pixels of air.
+     */
+    @Test
+    void realFilesWithoutAirAreRefusedWithTheReason() {
+        CliRunner.Result head = CliRunner.run("check", "src/test/resources/opendata/MR_small.dcm", "--background",
+                "auto");
+        assertNotEquals(0, head.status());
+        assertTrue(head.err().contains("field of view may be filled by the object"), head.err());
+        CliRunner.Result small = CliRunner.run("check", "src/test/resources/opendata/functional.nii", "--background",
+                "auto", "--slice", "1");
+        assertNotEquals(0, small.status());
+        assertTrue(small.err().contains("too few usable pixels"), small.err());
+    }
 }

@@ -167,6 +167,47 @@ class ReadmeClaimsTest {
         assertTrue(readme.contains(corners), "README lacks: " + corners);
     }
 
+    /** The noise-only-scan worked example: every figure the README quotes is what the command prints. */
+    @Test
+    void noiseScanWorkedExample() throws Exception {
+        String readme = readme().replace("\n", " ");
+        String img = "sample-images/bramble_accel_image.tif";
+        String noise = "sample-images/bramble_accel_noise.tif";
+        assertTrue(readme.contains("java -jar target/noisewise.jar background " + img + " --noise-scan " + noise
+                + " --signal 56,56,16,16 --sigma-map sigma.tif"));
+        JsonObject c = json(cli("background", img, "--noise-scan", noise, "--signal", "56,56,16,16", "--json"));
+        JsonObject e = json(cli("background", img, "--noise-scan", noise, "--signal", "18,56,12,16", "--json"));
+        JsonObject k = json(cli("background", img, "--signal", "56,56,16,16", "--channels", "4", "--background",
+                "2,2,20,20", "--background", "106,2,20,20", "--background", "2,106,20,20", "--background",
+                "106,106,20,20", "--json"));
+        String middle = String.format(Locale.ROOT, "estimates 4 channels from the scan (%.2f) and gives sigma %.2f "
+                        + "[%.2f, %.2f] and SNR %.2f [%.2f, %.2f] in the middle region",
+                c.getAsJsonObject("channels_estimate").get("value").getAsDouble(), c.get("sigma").getAsDouble(),
+                ci(c, "sigma_ci95", 0), ci(c, "sigma_ci95", 1), c.get("snr").getAsDouble(), ci(c, "snr_ci95", 0),
+                ci(c, "snr_ci95", 1));
+        String edge = String.format(Locale.ROOT, "at the edge region, sigma %.2f [%.2f, %.2f] and SNR %.2f [%.2f, %.2f]",
+                e.get("sigma").getAsDouble(), ci(e, "sigma_ci95", 0), ci(e, "sigma_ci95", 1), e.get("snr").getAsDouble(),
+                ci(e, "snr_ci95", 0), ci(e, "snr_ci95", 1));
+        String corners = String.format(Locale.ROOT, "give sigma %.2f and, in the middle, SNR %.2f [%.2f, %.2f]: %.0f%% too "
+                        + "high", k.get("sigma").getAsDouble(), k.get("snr").getAsDouble(), ci(k, "snr_ci95", 0),
+                ci(k, "snr_ci95", 1), 100 * (k.get("snr").getAsDouble()
+                        / org.noisewise.sample.NoiseScanSample.trueSnr(org.noisewise.sample.NoiseScanSample.CENTRE) - 1));
+        for (String claim : new String[] {middle, edge, corners}) {
+            assertTrue(readme.contains(claim), "README lacks: " + claim);
+        }
+        assertTrue(readme.contains(String.format(Locale.ROOT, "true SNR %.2f in the middle region",
+                org.noisewise.sample.NoiseScanSample.trueSnr(org.noisewise.sample.NoiseScanSample.CENTRE))));
+    }
+
+    private static JsonObject json(Run r) {
+        assertEquals(0, r.status(), r.err());
+        return JsonParser.parseString(r.out()).getAsJsonObject();
+    }
+
+    private static double ci(JsonObject o, String key, int i) {
+        return o.getAsJsonArray(key).get(i).getAsDouble();
+    }
+
     /** "On the bundled 24-repeat sample at a true SNR of 2, the raw mean is 14% high and the corrected one within 0.5%." */
     @Test
     void repeatsSampleStatement() throws Exception {

@@ -8,7 +8,9 @@ import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.measure.BackgroundMeasure;
+import org.noisewise.io.ImageWriter;
 import org.noisewise.measure.Measurement;
+import org.noisewise.measure.NoiseScanMeasure;
 import org.noisewise.measure.Progress;
 import org.noisewise.measure.Roles;
 import picocli.CommandLine.Command;
@@ -59,6 +61,18 @@ public class BackgroundCommand implements Callable<Integer> {
                     + "the background sigma, and a disagreement is reported.")
     Path second;
 
+    @Mixin
+    NoiseScanOption noiseScan;
+
+    @Option(names = "--sigma-map", paramLabel = "OUT.tif",
+            description = "With --noise-scan: write the noise-only scan's sigma over a window around each pixel as a "
+                    + "32-bit TIFF (a slice per measured slice; NaN where the scan is masked).")
+    Path sigmaMap;
+
+    @Option(names = "--sigma-window", paramLabel = "N", defaultValue = "15",
+            description = "With --sigma-map: the window's side in pixels (odd, at least 3; default 15).")
+    int sigmaWindow;
+
     @Option(names = "--air-mask", paramLabel = "OUT.tif",
             description = "With --background auto: write the air found as an 8-bit TIFF (255 = air), a slice per "
                     + "measured slice.")
@@ -81,14 +95,60 @@ public class BackgroundCommand implements Callable<Integer> {
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "background");
         progress.report(0.0, "reading " + image.getFileName());
         AirMask.check(airMask, regions, force, image);
+        checkNoiseScanOptions(est, dir);
         ImagePlus imp = ImageFiles.open(image, echoOption.get());
-        ImagePlus other = second == null ? null : ImageFiles.open(second, echoOption.get());
-        Measurement m = measure(imp, image.getFileName().toString(), regions, channels, est, dir, slice, other,
-                progress);
+        Measurement m;
+        if (noiseScan.given()) {
+            ImagePlus scan = noiseScan.open(echoOption.get());
+            Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
+            RegionOptions.require(roles, true, true, false);
+            m = NoiseScanMeasure.run(imp, image.getFileName().toString(), scan, noiseScan.title(), roles,
+                    new NoiseScanMeasure.Options(channelOption.stated() ? channels : null, sigmaWindow, sigmaMap != null), Slices.select(imp, slice),
+                    progress);
+            if (sigmaMap != null) {
+                ImageWriter.saveTiff(m.images().stream().filter(i -> i.getTitle().endsWith(" sigma map")).findFirst()
+                        .orElseThrow(), sigmaMap, force, image);
+            }
+        } else {
+            ImagePlus other = second == null ? null : ImageFiles.open(second, echoOption.get());
+            m = measure(imp, image.getFileName().toString(), regions, channels, est, dir, slice, other, progress);
+        }
         AirMask.write(m, airMask, force, image);
         Output.notes(spec.commandLine().getErr(), "background", m.notes());
         Output.print(spec.commandLine().getOut(), m.rows(), json);
         return 0;
+    }
+
+    /** Options that go with --noise-scan only, or not with it, refused before anything is read. */
+    private void checkNoiseScanOptions(SigmaEstimator est, PhaseDirection dir) throws InputException {
+        if (!noiseScan.given()) {
+            if (sigmaMap != null) {
+                throw new InputException("--sigma-map maps the sigma of a noise-only scan: add --noise-scan NOISE, or "
+                        + "leave --sigma-map out");
+            }
+            return;
+        }
+        if (second != null) {
+            throw new InputException("--second and --noise-scan are two ways to measure sigma: give one of them");
+        }
+        if (est != SigmaEstimator.ML) {
+            throw new InputException("with --noise-scan sigma is the maximum-likelihood estimate of the scan: leave "
+                    + "--estimator out");
+        }
+        if (dir != null) {
+            throw new InputException("--phase is for the background's ghosting check, which a noise-only scan does "
+                    + "not need: leave --phase out");
+        }
+        if (sigmaWindow < 3 || sigmaWindow % 2 == 0) {
+            throw new InputException("--sigma-window must be an odd number of pixels, at least 3 (was " + sigmaWindow
+                    + ")");
+        }
+        if (sigmaMap != null) {
+            ImageWriter.checkWritable(sigmaMap, force, image);
+        }
+        if (sigmaMap != null && sigmaMap.equals(airMask)) {
+            throw new InputException("--sigma-map and --air-mask name the same file: give two names");
+        }
     }
 
     /** The background method on one opened image (shared with batch). */

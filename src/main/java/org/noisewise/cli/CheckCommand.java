@@ -54,6 +54,9 @@ public class CheckCommand implements Callable<Integer> {
                     + "checked slice.")
     Path airMask;
 
+    @Mixin
+    NoiseScanOption noiseScan;
+
     @Option(names = "--phase", paramLabel = "ROW|COL",
             description = "Phase-encoding direction for the ghosting check (default: DICOM 0018,1312, else unknown).")
     String phase;
@@ -77,9 +80,13 @@ public class CheckCommand implements Callable<Integer> {
         regions.refuseContrast("check");
         Roles roles = regions.resolve(imp.getWidth(), imp.getHeight());
         RegionOptions.require(roles, false, false, true);
+        ImagePlus scan = noiseScan.open(echoOption.get());
+        if (scan != null && !channelOption.stated()) {
+            channels = null;
+        }
         Measurement m = CheckMeasure.run(imp, image.getFileName().toString(), roles,
                 new CheckMeasure.Options(channels, phase == null ? null : BackgroundCommand.parsePhase(phase)),
-                Slices.select(imp, slice), progress);
+                Slices.select(imp, slice), scan, noiseScan.title(), progress);
         if (plot != null) {
             ImageWriter.savePng(m.plots().get(0).getImagePlus(), plot, force, image);
         }

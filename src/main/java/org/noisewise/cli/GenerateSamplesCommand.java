@@ -19,6 +19,7 @@ import org.noisewise.sample.SampleCatalog;
 import org.noisewise.sample.ProtocolSamples;
 import org.noisewise.sample.StabilitySample;
 import org.noisewise.sample.HeadSample;
+import org.noisewise.sample.NoiseScanSample;
 import org.noisewise.sample.TissueSample;
 import org.noisewise.sample.SampleCatalog.Rect;
 import org.noisewise.sample.SampleCatalog.Sample;
@@ -54,6 +55,8 @@ public class GenerateSamplesCommand implements Callable<Integer> {
             truth.add(headTruth());
             writeDicomSeries(out);
             truth.add(dicomTruth());
+            writeNoiseScanPair(out);
+            truth.add(noiseScanTruth());
             JsonObject root = new JsonObject();
             root.addProperty("scenario", "Invented: the imaging-physics bench of the fictional Fernhollow Institute.");
             root.addProperty("generator", "org.noisewise.sample.SampleCatalog (java -jar target/noisewise.jar generate-samples)");
@@ -144,6 +147,36 @@ public class GenerateSamplesCommand implements Callable<Integer> {
         st.addSlice(new ij.process.ShortProcessor(HeadSample.SIZE, HeadSample.SIZE, HeadSample.generate(), null));
         writeDiskStack(out, HeadSample.FILE, st, "Aster, head-shaped gel phantom with an 8% Nyquist ghost and "
                 + "zero-filled side bands");
+    }
+
+    /** The accelerated image and its noise-only scan, one 32-bit slice each. */
+    static void writeNoiseScanPair(Path out) throws InputException {
+        writeDiskStack(out, NoiseScanSample.IMAGE, new float[][]{NoiseScanSample.image()}, "Bramble, 4-channel array, "
+                + "disk phantom with parallel imaging (reduction 2 along x): noise rises to 1.8x in the middle columns");
+        writeDiskStack(out, NoiseScanSample.NOISE, new float[][]{NoiseScanSample.noise()}, "Bramble, noise-only scan "
+                + "(RF transmitter off) of the same accelerated protocol");
+    }
+
+    private static JsonObject noiseScanTruth() {
+        JsonObject o = new JsonObject();
+        o.addProperty("file", NoiseScanSample.IMAGE);
+        o.addProperty("noise_scan", NoiseScanSample.NOISE);
+        o.addProperty("description", "Bramble, 4-channel array, disk phantom with parallel imaging: sigma per channel "
+                + "5 g(x), g(x) = 1 + 0.8 exp(-(x - 64)^2 / 800), and its noise-only scan, for SNR with a noise-only "
+                + "scan");
+        o.addProperty("use", "noise_scan");
+        o.addProperty("frames", 1);
+        o.addProperty("channels", NoiseScanSample.CHANNELS);
+        o.addProperty("amplitude", NoiseScanSample.AMPLITUDE);
+        o.addProperty("sigma", NoiseScanSample.SIGMA);
+        o.addProperty("signal", NoiseScanSample.CENTRE.toString());
+        o.addProperty("sigma_at_signal", NoiseScanSample.trueSigma(NoiseScanSample.CENTRE));
+        o.addProperty("true_snr", NoiseScanSample.trueSnr(NoiseScanSample.CENTRE));
+        o.addProperty("edge", NoiseScanSample.EDGE.toString());
+        o.addProperty("true_snr_edge", NoiseScanSample.trueSnr(NoiseScanSample.EDGE));
+        o.addProperty("seed", NoiseScanSample.SEED);
+        o.addProperty("noise_seed", NoiseScanSample.NOISE_SEED);
+        return o;
     }
 
     private static JsonObject headTruth() {

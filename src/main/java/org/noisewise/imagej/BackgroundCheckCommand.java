@@ -1,6 +1,7 @@
 package org.noisewise.imagej;
 
 import ij.ImagePlus;
+import ij.WindowManager;
 import ij.gui.GenericDialog;
 import ij.gui.Plot;
 import ij.gui.Roi;
@@ -21,6 +22,7 @@ import org.noisewise.measure.Measurement;
  * fit, agreement of the four sigma estimators, zeros, clipping and quantisation, and a verdict.
  *
  * <p>Macro keys: {@code channels} (L or auto), {@code phase} (as in the background command),
+ * {@code noise-only} (title of a noise-only scan to compare with, or [None]),
  * {@code plot} (show the histogram plot), {@code png} (a file to save the plot to, optional),
  * {@code replace} (replace an existing PNG file), {@code append}, {@code role_<name>}. Background
  * regions: ROI Manager regions named {@code background/bg/air/noise...}, else every ROI Manager region
@@ -44,6 +46,8 @@ public class BackgroundCheckCommand implements PlugIn {
             gd.addChoice("Background:", new String[] {BackgroundSnrCommand.AIR_REGIONS, BackgroundSnrCommand.AIR_AUTO},
                     regions.isEmpty() ? BackgroundSnrCommand.AIR_AUTO : BackgroundSnrCommand.AIR_REGIONS);
             DialogFields.addPhase(gd, imp);
+            gd.addChoice("Noise-only scan:", DialogFields.otherImages(imp, BackgroundSnrCommand.NONE),
+                    BackgroundSnrCommand.NONE);
             gd.addCheckbox("Plot histogram and fit", true);
             gd.addFileField("PNG file for the plot (optional):", "", 30);
             gd.addCheckbox("Replace existing files", false);
@@ -57,6 +61,11 @@ public class BackgroundCheckCommand implements PlugIn {
             Integer channels = DialogFields.parseChannels(gd.getNextString());
             boolean auto = BackgroundSnrCommand.AIR_AUTO.equals(gd.getNextChoice());
             PhaseDirection phase = DialogFields.nextPhase(gd);
+            String scanTitle = gd.getNextChoice();
+            ImagePlus scan = BackgroundSnrCommand.NONE.equals(scanTitle) ? null : WindowManager.getImage(scanTitle);
+            if (scan != null) {
+                Face.checkImage(scan, TITLE);
+            }
             boolean plot = gd.getNextBoolean();
             String png = gd.getNextString().trim();
             boolean replace = gd.getNextBoolean();
@@ -68,8 +77,8 @@ public class BackgroundCheckCommand implements PlugIn {
             List<Roi> signal = auto ? regions.withRole(org.noisewise.io.RoleNames.SIGNAL) : regions.signalRegions();
             List<Roi> background = auto ? List.of() : regions.backgroundRegions();
             Measurement m = auto ? measureAutomaticAir(imp, imp.getCurrentSlice(), signal,
-                    new CheckMeasure.Options(channels, phase)) : measure(imp, imp.getCurrentSlice(), signal, background,
-                    new CheckMeasure.Options(channels, phase));
+                    new CheckMeasure.Options(channels, phase), scan) : measure(imp, imp.getCurrentSlice(), signal,
+                    background, new CheckMeasure.Options(channels, phase), scan);
             if (auto) {
                 background = Face.airRegions(m, imp);
             }
@@ -102,7 +111,7 @@ public class BackgroundCheckCommand implements PlugIn {
      */
     public static Output process(ImagePlus imp, int slice, List<Roi> signal, List<Roi> background,
                                  CheckMeasure.Options options) throws InputException {
-        Measurement m = measure(imp, slice, signal, background, options);
+        Measurement m = measure(imp, slice, signal, background, options, null);
         return new Output(null, Tables.toResultsTable(m.rows()), m.plots().get(0));
     }
 
@@ -112,20 +121,32 @@ public class BackgroundCheckCommand implements PlugIn {
      */
     public static Output processAutomaticAir(ImagePlus imp, int slice, List<Roi> signal, CheckMeasure.Options options)
             throws InputException {
-        Measurement m = measureAutomaticAir(imp, slice, signal, options);
+        Measurement m = measureAutomaticAir(imp, slice, signal, options, null);
         return new Output(null, Tables.toResultsTable(m.rows()), m.plots().get(0));
     }
 
-    static Measurement measureAutomaticAir(ImagePlus imp, int slice, List<Roi> signal, CheckMeasure.Options options)
-            throws InputException {
+    /**
+     * Checks slice {@code slice} against a noise-only scan too: the scan's sigma in the background and at
+     * the signal region, the scale check and the noise variation (see the README). Never modifies
+     * either image; {@code background} empty means automatic air.
+     */
+    public static Output processWithNoiseScan(ImagePlus imp, int slice, List<Roi> signal, List<Roi> background,
+                                              CheckMeasure.Options options, ImagePlus scan) throws InputException {
+        Measurement m = background.isEmpty() ? measureAutomaticAir(imp, slice, signal, options, scan)
+                : measure(imp, slice, signal, background, options, scan);
+        return new Output(null, Tables.toResultsTable(m.rows()), m.plots().get(0));
+    }
+
+    static Measurement measureAutomaticAir(ImagePlus imp, int slice, List<Roi> signal, CheckMeasure.Options options,
+                                           ImagePlus scan) throws InputException {
         Face.checkImage(imp, TITLE);
         List<Roi> sig = signal == null || signal.isEmpty() ? List.of() : signal.subList(0, 1);
         return CheckMeasure.run(imp, imp.getTitle(), RegionRoles.roles(sig, List.of(), imp).withAutoAir(), options,
-                new int[] {slice}, ImageJProgress.INSTANCE);
+                new int[] {slice}, scan, scan == null ? null : scan.getTitle(), ImageJProgress.INSTANCE);
     }
 
     static Measurement measure(ImagePlus imp, int slice, List<Roi> signal, List<Roi> background,
-                               CheckMeasure.Options options) throws InputException {
+                               CheckMeasure.Options options, ImagePlus scan) throws InputException {
         Face.checkImage(imp, TITLE);
         if (background == null || background.isEmpty()) {
             throw new InputException("There is no background region: add regions in air to the ROI Manager and name "
@@ -134,7 +155,7 @@ public class BackgroundCheckCommand implements PlugIn {
         List<Roi> sig = signal == null || signal.isEmpty() || background.contains(signal.get(0)) ? List.of()
                 : signal.subList(0, 1);
         return CheckMeasure.run(imp, imp.getTitle(), RegionRoles.roles(sig, background, imp), options,
-                new int[] {slice}, ImageJProgress.INSTANCE);
+                new int[] {slice}, scan, scan == null ? null : scan.getTitle(), ImageJProgress.INSTANCE);
     }
 
     /** The title of the table a first run on {@code imp} shows (later runs get unique titles). */

@@ -13,6 +13,8 @@ import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.SigmaEstimator;
 import org.noisewise.measure.BackgroundMeasure;
 import org.noisewise.measure.Measurement;
+import org.noisewise.measure.NoiseScanMeasure;
+import org.noisewise.diagnose.NoiseScan;
 import org.noisewise.measure.Planes;
 
 /**
@@ -24,7 +26,9 @@ import org.noisewise.measure.Planes;
  * [All slices]), {@code roles} ([Region names] or [Selection is signal]), {@code phase}
  * ([Rows (ghosts left/right)], [Columns (ghosts above/below)] or [Unknown]; default from DICOM
  * 0018,1312), {@code second} (title of a second identical acquisition to check the background against,
- * or [None]), {@code append} (rows to one table for all images), and {@code role_<name>} (signal,
+ * or [None]), {@code noise-only} (title of a noise-only scan of the same protocol, or [None]: sigma then
+ * comes from the scan's pixels in the signal region), {@code sigma} (show the scan's sigma map) with
+ * {@code window} (its window in pixels, odd), {@code append} (rows to one table for all images), and {@code role_<name>} (signal,
  * background or ignore) for each ROI Manager region whose name implies no role.
  * Example: {@code run("SNR (Background Regions)...", "channels=1 estimator=[Maximum likelihood]
  * slices=[Current slice] roles=[Region names] second=None");}
@@ -57,6 +61,9 @@ public class BackgroundSnrCommand implements PlugIn {
             gd.addChoice("Background:", new String[] {AIR_REGIONS, AIR_AUTO}, AIR_REGIONS);
             DialogFields.addPhase(gd, imp);
             gd.addChoice("Second acquisition (optional check):", DialogFields.otherImages(imp, NONE), NONE);
+            gd.addChoice("Noise-only scan:", DialogFields.otherImages(imp, NONE), NONE);
+            gd.addCheckbox("Sigma map from the noise-only scan", false);
+            gd.addNumericField("Window for the sigma map (pixels):", NoiseScan.DEFAULT_WINDOW, 0);
             regions.addFields(gd);
             Face.addAppend(gd);
             gd.addHelp(Face.help("SNR (Background Regions)"));
@@ -71,6 +78,9 @@ public class BackgroundSnrCommand implements PlugIn {
             boolean auto = AIR_AUTO.equals(gd.getNextChoice());
             PhaseDirection phase = DialogFields.nextPhase(gd);
             String secondTitle = gd.getNextChoice();
+            String scanTitle = gd.getNextChoice();
+            boolean map = gd.getNextBoolean();
+            double window = gd.getNextNumber();
             regions.readFields(gd);
             boolean append = gd.getNextBoolean();
             Roi signal;
@@ -97,6 +107,28 @@ public class BackgroundSnrCommand implements PlugIn {
             }
             ImagePlus second = NONE.equals(secondTitle) ? null : WindowManager.getImage(secondTitle);
             Roi contrast = regions.contrastRegion();
+            if (!NONE.equals(scanTitle)) {
+                if (second != null) {
+                    throw new InputException("A second acquisition and a noise-only scan are two ways to measure sigma: "
+                            + "choose one of them (set the other to None).");
+                }
+                if (estimator != SigmaEstimator.ML) {
+                    throw new InputException("With a noise-only scan sigma is its maximum-likelihood estimate: choose "
+                            + "'Estimator: " + SigmaEstimator.ML.label() + "'.");
+                }
+                if (map && (!(window >= 3) || window % 2 != 1)) {
+                    throw new InputException("The window for the sigma map must be an odd number of pixels, at least 3.");
+                }
+                ImagePlus scan = WindowManager.getImage(scanTitle);
+                Measurement m = measureNoiseScan(imp, signal, background, auto, contrast, channels, all, scan,
+                        map ? (int) window : 0);
+                Face.show(TITLE, imp, m.rows(), append);
+                Face.log(TITLE, m.notes());
+                m.images().stream().filter(i -> i.getTitle().endsWith(" sigma map")).forEach(Face::showNew);
+                Face.overlay(imp, List.of(signal), auto ? Face.airRegions(m, imp) : background, contrast);
+                Face.reactivate(imp);
+                return;
+            }
             BackgroundMeasure.Options o = new BackgroundMeasure.Options(channels, estimator, phase);
             Measurement m = auto ? measureAutomaticAir(imp, signal, contrast, o, all, second)
                     : measure(imp, signal, background, contrast, o, all, second);
@@ -163,6 +195,35 @@ public class BackgroundSnrCommand implements PlugIn {
         int[] planes = allSlices ? Planes.all(imp) : new int[] {imp.getCurrentSlice()};
         return BackgroundMeasure.run(imp, imp.getTitle(), RegionRoles.roles(List.of(signal), background, contrast, imp),
                 o, planes, second, ImageJProgress.INSTANCE);
+    }
+
+    /**
+     * SNR with sigma from a noise-only scan over the signal region's own pixels (no dialog; never modifies
+     * {@code imp} or {@code scan}). Background regions, or automatic air, are optional: with them the
+     * image's background sigma is compared with the scan's in the same pixels (a scan of another scale
+     * gives no SNR).
+     *
+     * @param channels stated channel count, or null to estimate it from the scan
+     * @param window   side of the sigma map's window, or 0 for no map
+     */
+    public static Measurement measureNoiseScan(ImagePlus imp, Roi signal, List<Roi> background, boolean autoAir,
+                                               Roi contrast, Integer channels, boolean allSlices, ImagePlus scan,
+                                               int window) throws InputException {
+        Face.checkImage(imp, TITLE);
+        if (scan == null) {
+            throw new InputException("The noise-only scan is no longer open: open it and choose it again.");
+        }
+        Face.checkImage(scan, TITLE);
+        if (signal == null) {
+            throw new InputException("There is no signal region: name a ROI Manager region 'signal', or draw a "
+                    + "selection and choose 'Roles from: Selection is signal'.");
+        }
+        int[] planes = allSlices ? Planes.all(imp) : new int[] {imp.getCurrentSlice()};
+        org.noisewise.measure.Roles roles = RegionRoles.roles(List.of(signal), autoAir ? List.of() : background,
+                contrast, imp);
+        return NoiseScanMeasure.run(imp, imp.getTitle(), scan, scan.getTitle(), autoAir ? roles.withAutoAir() : roles,
+                new NoiseScanMeasure.Options(channels, window > 0 ? window : NoiseScan.DEFAULT_WINDOW, window > 0),
+                planes, ImageJProgress.INSTANCE);
     }
 
     /** The title of the table a first run on {@code imp} shows (later runs get unique titles). */

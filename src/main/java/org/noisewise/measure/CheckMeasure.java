@@ -5,7 +5,10 @@ import ij.gui.Plot;
 import java.util.ArrayList;
 import java.util.List;
 import org.noisewise.diagnose.BackgroundDiagnostics;
+import org.noisewise.diagnose.NoiseScan;
 import org.noisewise.diagnose.PhaseDirection;
+import org.noisewise.estimate.Warning;
+import org.noisewise.report.NoiseScanRows;
 import org.noisewise.estimate.BackgroundNoise;
 import org.noisewise.estimate.InputException;
 import org.noisewise.estimate.Region;
@@ -32,6 +35,19 @@ public final class CheckMeasure {
 
     public static Measurement run(ImagePlus imp, String title, Roles roles, Options o, int[] planes,
                                   Progress progress) throws InputException {
+        return run(imp, title, roles, o, planes, null, null, progress);
+    }
+
+    /**
+     * The check with a noise-only scan: its sigma in the background regions and at the signal region
+     * are added, with the scale check ({@code noise_scan_scale}) and the noise variation between them
+     * ({@code noise_varies}, which makes the verdict invalid: the background sigma misstates the signal
+     * region's noise).
+     *
+     * @param scan the noise-only scan, or null
+     */
+    public static Measurement run(ImagePlus imp, String title, Roles roles, Options o, int[] planes, ImagePlus scan,
+                                  String scanTitle, Progress progress) throws InputException {
         ImagePlanes.requireGrayscale(imp);
         Air air = new Air(roles, imp.getWidth(), imp.getHeight());
         if (!roles.autoAir()) {
@@ -58,7 +74,24 @@ public final class CheckMeasure {
             BackgroundDiagnostics.Diagnosis d = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(),
                     signal, background, noise, new BackgroundDiagnostics.Options(o.channels(), phase,
                             BackgroundValues.storage(imp, n)));
-            rows.add(air.addShare(MethodRows.check(title, n, unit, d)));
+            NoiseScanMeasure.CheckPart part = null;
+            if (scan != null) {
+                int sp = NoiseScanMeasure.scanPlane(imp, title, scan, scanTitle, n);
+                float[] np = ImagePlanes.calibratedPixels(scan, sp);
+                NoiseScan.Check c = NoiseScanMeasure.check(scan, scanTitle, sp, o.channels(), signal, np);
+                notes.add(NoiseScanMeasure.scanNote(n, scanTitle, sp, c));
+                part = NoiseScanMeasure.checkPart(px, np, imp.getWidth(), background, signal, c,
+                        BackgroundValues.storage(imp, n).step());
+                for (Warning w : part.warnings()) {
+                    d = d.withReason(w, part.verdict());
+                }
+            }
+            ResultRow row = MethodRows.check(title, n, unit, d);
+            if (part != null) {
+                row = NoiseScanRows.checkColumns(row, unit, scanTitle, part.background(), part.scale(), part.atSignal(),
+                        part.variation());
+            }
+            rows.add(air.addShare(row));
             plots.add(HistogramPlot.build("Background histogram - " + title + (planes.length > 1 ? " slice " + n : ""),
                     noise.values(), d, unit));
         }

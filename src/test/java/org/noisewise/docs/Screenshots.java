@@ -35,6 +35,10 @@ public final class Screenshots {
         ImageJHarness.start();
         robot = new Robot();
         RoiManager rm = RoiManager.getRoiManager();
+        noiseScan(rm);
+        if (args.length > 1 && args[1].equals("noise-scan")) {
+            System.exit(0);
+        }
 
         ImagePlus one = open("aster_disk_1ch.tif");
         rm.reset();
@@ -155,6 +159,30 @@ public final class Screenshots {
         capture(g.getWindow(), "gfactor-map.png");
         capture(WindowManager.getWindow(org.noisewise.imagej.GFactorMapCommand.tableTitle(full)), "gfactor-table.png");
         System.exit(0);
+    }
+
+    /** The noise-only scan's sigma map of the accelerated sample, in a colour scale with its bar. */
+    private static void noiseScan(RoiManager rm) throws Exception {
+        ImagePlus scan = open(org.noisewise.sample.NoiseScanSample.NOISE);
+        ImagePlus img = open(org.noisewise.sample.NoiseScanSample.IMAGE);
+        scan.show();
+        img.show();
+        rm.reset();
+        add(rm, org.noisewise.sample.NoiseScanSample.CENTRE, "signal");
+        IJ.run(img, "SNR (Background Regions)...", "channels=auto estimator=[Maximum likelihood] "
+                + "slices=[Current slice] roles=[Region names] second=None noise-only="
+                + org.noisewise.sample.NoiseScanSample.NOISE + " sigma window=15");
+        ImagePlus map = WindowManager.getImage(org.noisewise.sample.NoiseScanSample.IMAGE + " sigma map");
+        IJ.run(map, "Fire", "");
+        IJ.run(map, "Set... ", "zoom=300");
+        IJ.run(map, "Calibration Bar...", "location=[Lower Right] fill=White label=Black number=3 decimal=1 "
+                + "font=12 zoom=0.4 overlay");
+        settle();
+        capture(map.getWindow(), "noise-scan-sigma-map.png");
+        map.changes = false;
+        map.close();
+        img.close();
+        scan.close();
     }
 
     /** The newest window whose title starts with {@code prefix} (outputs get unique titles). */

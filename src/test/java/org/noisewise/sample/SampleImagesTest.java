@@ -56,6 +56,15 @@ class SampleImagesTest {
         assertArrayEquals(HeadSample.generate(), (short[]) imp.getProcessor().getPixels());
     }
 
+    /** The noise-only-scan pair is what the generator makes. */
+    @Test
+    void committedNoiseScanPairMatchesTheGenerator() throws InputException {
+        assertArrayEquals(NoiseScanSample.image(), ImagePlanes.calibratedPixels(
+                ImageFiles.open(DIR.resolve(NoiseScanSample.IMAGE)), 1));
+        assertArrayEquals(NoiseScanSample.noise(), ImagePlanes.calibratedPixels(
+                ImageFiles.open(DIR.resolve(NoiseScanSample.NOISE)), 1));
+    }
+
     /** The bundled DICOM series folder holds exactly the files the generator writes, byte for byte. */
     @Test
     void committedDicomSeriesMatchesTheGenerator() throws IOException {
@@ -75,17 +84,21 @@ class SampleImagesTest {
     void truthFileMatchesTheCatalog() throws IOException {
         JsonObject root = JsonParser.parseString(Files.readString(DIR.resolve("truth.json"))).getAsJsonObject();
         JsonArray samples = root.getAsJsonArray("samples");
-        assertEquals(SampleCatalog.SAMPLES.size() + 1 + ProtocolSamples.ALL.size() + 3, samples.size(),
-                "the image samples, the stability series, the protocol series, the two-tissue and head samples and the "
-                        + "DICOM series");
-        JsonObject head = samples.get(samples.size() - 2).getAsJsonObject();
+        assertEquals(SampleCatalog.SAMPLES.size() + 1 + ProtocolSamples.ALL.size() + 4, samples.size(),
+                "the image samples, the stability series, the protocol series, the two-tissue and head samples, the "
+                        + "DICOM series and the noise-only-scan pair");
+        JsonObject scan = samples.get(samples.size() - 1).getAsJsonObject();
+        assertEquals(NoiseScanSample.IMAGE, scan.get("file").getAsString());
+        assertEquals(NoiseScanSample.NOISE, scan.get("noise_scan").getAsString());
+        assertEquals(NoiseScanSample.trueSnr(NoiseScanSample.CENTRE), scan.get("true_snr").getAsDouble(), 0.0);
+        JsonObject head = samples.get(samples.size() - 3).getAsJsonObject();
         assertEquals(HeadSample.FILE, head.get("file").getAsString());
         assertEquals(HeadSample.SIGMA, head.get("sigma").getAsDouble(), 0.0);
-        JsonObject tissues = samples.get(samples.size() - 3).getAsJsonObject();
+        JsonObject tissues = samples.get(samples.size() - 4).getAsJsonObject();
         assertEquals(TissueSample.FILE, tissues.get("file").getAsString());
         assertEquals(8.0, tissues.get("true_cnr").getAsDouble(), 0.0);
         assertEquals(TissueSample.CONTRAST.toString(), tissues.get("contrast").getAsString());
-        JsonObject dicom = samples.get(samples.size() - 1).getAsJsonObject();
+        JsonObject dicom = samples.get(samples.size() - 2).getAsJsonObject();
         assertEquals(DicomSample.FOLDER + "/", dicom.get("file").getAsString());
         assertEquals(DicomSample.trueSnr(4), dicom.getAsJsonArray("true_snr_per_slice").get(3).getAsDouble());
         JsonObject st = samples.get(SampleCatalog.SAMPLES.size()).getAsJsonObject();

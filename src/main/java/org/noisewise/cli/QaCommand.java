@@ -60,6 +60,15 @@ public class QaCommand implements Callable<Integer> {
     @Option(names = "--phase", paramLabel = "ROW|COL", description = "Phase-encoding direction (default: DICOM 0018,1312).")
     String phase;
 
+    @Option(names = "--background", paramLabel = "auto",
+            description = "auto: take the background from all the air found in the slice (pure-noise pixels, ghosts, "
+                    + "zeros and clipped values left out) instead of the regions placed beside the phantom.")
+    String background;
+
+    @Option(names = "--air-mask", paramLabel = "OUT.tif",
+            description = "With --background auto: write the air found as an 8-bit TIFF (255 = air).")
+    Path airMask;
+
     @Mixin
     ChannelsOption channelOption;
 
@@ -92,6 +101,18 @@ public class QaCommand implements Callable<Integer> {
                     + "acquisitions for the difference method; run it once per session");
         }
         Integer channels = channelOption.get(true);
+        boolean autoAir = background != null;
+        if (autoAir && !background.trim().equalsIgnoreCase("auto")) {
+            throw new InputException("qa places its own background regions beside the phantom: --background takes only "
+                    + "auto here (all the air), was '" + background + "'");
+        }
+        if (airMask != null) {
+            if (!autoAir) {
+                throw new InputException("--air-mask writes the air that --background auto finds: add --background "
+                        + "auto, or leave --air-mask out");
+            }
+            org.noisewise.io.ImageWriter.checkWritable(airMask, force, images.toArray(new Path[0]));
+        }
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "qa");
         progress.report(0.0, "reading " + images.get(0).getFileName());
         ImagePlus first = ImageFiles.open(images.get(0), echoOption.get());
@@ -105,9 +126,19 @@ public class QaCommand implements Callable<Integer> {
         }
         QaMeasure.Options o = new QaMeasure.Options(fraction, phase == null ? null : BackgroundCommand.parsePhase(phase),
                 channels, field, limits, logKeys.scanner, logKeys.coil, logKeys.protocol, logKeys.baseline, log, report,
-                force, slice, trends, repeats);
+                force, slice, trends, repeats, autoAir);
         QaMeasure.Outcome out = QaMeasure.run(first, second, null, o, images.get(0),
                 progress);
+        if (airMask != null && out.result().air() != null) {
+            boolean[] m = out.result().air().mask();
+            byte[] b = new byte[m.length];
+            for (int i = 0; i < m.length; i++) {
+                b[i] = m[i] ? (byte) 255 : 0;
+            }
+            org.noisewise.io.ImageWriter.saveTiff(new ImagePlus(first.getTitle() + " air mask",
+                    new ij.process.ByteProcessor(first.getWidth(), first.getHeight(), b)), airMask, force,
+                    images.toArray(new Path[0]));
+        }
         Output.notes(spec.commandLine().getErr(), "qa", out.notes());
         Output.print(spec.commandLine().getOut(), List.of(out.row()), json);
         if (report != null) {

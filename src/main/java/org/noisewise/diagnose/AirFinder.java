@@ -36,6 +36,16 @@ import org.noisewise.estimate.Region;
  */
 public final class AirFinder {
 
+    /** How the iteration ended. */
+    public enum Settling {
+        /** The selection no longer changed. */
+        FIXED_POINT,
+        /** Two selections alternated; the pixels both take are used. */
+        CYCLE,
+        /** Still changing after {@link #MAX_ITERATIONS} iterations; the last selection is used. */
+        NOT_SETTLED
+    }
+
     /** Window side in pixels. */
     public static final int WINDOW = 7;
     /** Side of the second, wider window that finds faint extended structure (ghosts) among the candidates. */
@@ -65,7 +75,8 @@ public final class AirFinder {
      * @param share      air pixels over all pixels of the slice
      * @param iterations iterations to self-consistency
      */
-    public record Result(boolean[] mask, List<Region> regions, int pixels, double share, int iterations) {
+    public record Result(boolean[] mask, List<Region> regions, int pixels, double share, int iterations,
+                         Settling settling) {
         public Result {
             regions = List.copyOf(regions);
         }
@@ -118,8 +129,10 @@ public final class AirFinder {
         int wideMin = wideK / 4;
         double[][] wideQ = quantiles(channels, wideK, wideMin);
         boolean[] air = new boolean[n];
+        boolean[] before = null;
         int iterations = 0;
         int count = 0;
+        Settling settling = Settling.NOT_SETTLED;
         for (int it = 1; it <= MAX_ITERATIONS; it++) {
             iterations = it;
             boolean[] marked = new boolean[n];
@@ -161,6 +174,25 @@ public final class AirFinder {
                 }
             }
             boolean same = Arrays.equals(next, air);
+            if (!same && before != null && Arrays.equals(next, before)) {
+                // two selections alternate (a window on the edge of a quantile flips back and forth):
+                // the pixels both take are air under either estimate
+                sum = 0;
+                cnt = 0;
+                for (int i = 0; i < n; i++) {
+                    next[i] &= air[i];
+                    if (next[i]) {
+                        sum += m2[i];
+                        cnt++;
+                    }
+                }
+                air = next;
+                count = cnt;
+                e = cnt > 0 ? sum / cnt : e;
+                settling = Settling.CYCLE;
+                break;
+            }
+            before = air;
             air = next;
             count = cnt;
             if (cnt == 0) {
@@ -169,6 +201,7 @@ public final class AirFinder {
             double updated = sum / cnt;
             if (same || Math.abs(updated / e - 1) < 1e-9) {
                 e = updated;
+                settling = Settling.FIXED_POINT;
                 break;
             }
             e = updated;
@@ -197,7 +230,7 @@ public final class AirFinder {
                     dispersion, stated > 0 ? String.format(Locale.ROOT, "%.3g", 1.0 / stated)
                             : String.format(Locale.ROOT, "1/L, at least %.3g", 1.0 / MAX_CHANNELS)));
         }
-        return new Result(air, quadrants(air, width, height), count, (double) count / n, iterations);
+        return new Result(air, quadrants(air, width, height), count, (double) count / n, iterations, settling);
     }
 
     /** The {@code r}-th smallest value (0-based) of {@code v}, which it reorders (Hoare's selection). */

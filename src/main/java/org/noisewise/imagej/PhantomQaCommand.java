@@ -33,7 +33,8 @@ import org.noisewise.report.QaRows;
  * automatic run that were not moved are replaced; anything else in the ROI Manager stays.
  *
  * <p>Macro keys: {@code second} (title of a second acquisition, or [None]), {@code regions}
- * ([Automatic] or [ROI Manager]), {@code fraction}, {@code channels} (L or auto), {@code phase},
+ * ([Automatic] or [ROI Manager]), {@code background} ([Placed regions] or [Automatic (all air)]: the
+ * background from all the air found in the slice), {@code fraction}, {@code channels} (L or auto), {@code phase},
  * {@code limits} (apply published action limits), {@code field} (tesla, 0 = from DICOM),
  * {@code scanner}, {@code coil}, {@code protocol}, {@code baseline}, {@code log} and {@code report}
  * (file paths, optional), {@code trends} (a folder for one trend PNG per metric; needs a log),
@@ -46,6 +47,7 @@ public class PhantomQaCommand implements PlugIn {
     static final String NONE = "None";
     static final String AUTOMATIC = "Automatic";
     static final String MANAGER = "ROI Manager";
+    static final String PLACED_AIR = "Placed regions";
     /** ROI property holding the geometry a region had when the QA placed it. */
     static final String PLACED = "noisewise.qa";
 
@@ -56,6 +58,7 @@ public class PhantomQaCommand implements PlugIn {
             GenericDialog gd = new GenericDialog(TITLE);
             gd.addChoice("Second acquisition:", DialogFields.otherImages(imp, NONE), NONE);
             gd.addChoice("Regions:", new String[] {AUTOMATIC, MANAGER}, AUTOMATIC);
+            gd.addChoice("Background:", new String[] {PLACED_AIR, BackgroundSnrCommand.AIR_AUTO}, PLACED_AIR);
             gd.addNumericField("Fraction of phantom area for the signal region:", QaRegions.DEFAULT_FRACTION, 2, 6,
                     "(0-1)");
             DialogFields.addChannels(gd);
@@ -80,6 +83,7 @@ public class PhantomQaCommand implements PlugIn {
             }
             String secondTitle = gd.getNextChoice();
             boolean manager = MANAGER.equals(gd.getNextChoice());
+            boolean autoAir = BackgroundSnrCommand.AIR_AUTO.equals(gd.getNextChoice());
             double fraction = gd.getNextNumber();
             Integer channels = DialogFields.parseChannels(gd.getNextString());
             PhaseDirection phase = DialogFields.nextPhase(gd);
@@ -110,14 +114,15 @@ public class PhantomQaCommand implements PlugIn {
                     scanner.isEmpty() ? null : scanner, coil.isEmpty() ? null : coil,
                     protocol.isEmpty() ? null : protocol, baseline, log.isEmpty() ? null : Path.of(log),
                     report.isEmpty() ? null : Path.of(report), replace, slice, trends.isEmpty() ? null : Path.of(trends),
-                    repeats);
+                    repeats, autoAir);
             QaMeasure.Outcome out = process(imp, second, placement, o);
             Face.show(TITLE, imp, List.of(out.row()), append);
             Face.log(TITLE, out.notes());
             if (!manager) {
                 addToManager(imp, QaRows.regions(out.result()));
             }
-            drawRegions(imp, QaRows.regions(out.result()));
+            drawRegions(imp, QaRows.regions(out.result()), out.result().air() == null ? null
+                    : out.result().air().mask());
             if (out.result().backgroundDiagnosis() != null) {
                 Plot p = HistogramPlot.build(Face.uniqueTitle("Background histogram - " + imp.getTitle()),
                         out.result().backgroundValues(), out.result().backgroundDiagnosis(), ImagePlanes.valueUnit(imp));
@@ -160,9 +165,27 @@ public class PhantomQaCommand implements PlugIn {
 
     /** The QA's regions as an overlay on the image (Image > Overlay > Remove Overlay takes it away). */
     static void drawRegions(ImagePlus imp, List<PlacedRegion> regions) {
+        drawRegions(imp, regions, null);
+    }
+
+    /** As above, with the automatic air (a mask, or null) outlined in the background colour. */
+    static void drawRegions(ImagePlus imp, List<PlacedRegion> regions, boolean[] air) {
         List<Roi> rois = new ArrayList<>();
         for (PlacedRegion p : regions) {
             rois.add(QaImages.roi(p));
+        }
+        if (air != null) {
+            ij.process.ByteProcessor mask = new ij.process.ByteProcessor(imp.getWidth(), imp.getHeight());
+            for (int i = 0; i < air.length; i++) {
+                mask.set(i, air[i] ? 255 : 0);
+            }
+            mask.setThreshold(255, 255, ij.process.ImageProcessor.NO_LUT_UPDATE);
+            Roi outline = ij.plugin.filter.ThresholdToSelection.run(new ImagePlus("air", mask));
+            if (outline != null) {
+                outline.setName("air (automatic)");
+                outline.setStrokeColor(QaImages.KEY.get(2).colour());
+                rois.add(outline);
+            }
         }
         // the report's and the ROI Manager's colour key
         Face.overlayWithKey(imp, rois, QaImages.KEY);

@@ -130,6 +130,15 @@ public final class QaImages {
      */
     public static ImagePlus sliceWithRegions(String title, float[] pixels, int width, int height, List<PlacedRegion> regions,
                                              double[] range) {
+        return sliceWithRegions(title, pixels, width, height, regions, range, null);
+    }
+
+    /**
+     * As above, with the automatic air (a mask, or null) outlined in the background colour and labelled
+     * {@code air (automatic)}.
+     */
+    public static ImagePlus sliceWithRegions(String title, float[] pixels, int width, int height, List<PlacedRegion> regions,
+                                             double[] range, boolean[] air) {
         int side = Math.max(width, height);
         ImageProcessor source = new FloatProcessor(width, height, pixels);
         ImageProcessor ip;
@@ -177,6 +186,24 @@ public final class QaImages {
             TextRoi label = new TextRoi(lx, ly, p.name(), font);
             label.setStrokeColor(colour(p.name()));
             ov.add(label);
+        }
+        if (air != null) {
+            ImageProcessor mask = new ij.process.ByteProcessor(width, height);
+            for (int i = 0; i < air.length; i++) {
+                mask.set(i, air[i] ? 255 : 0);
+            }
+            mask.setInterpolationMethod(ImageProcessor.NONE);
+            ImageProcessor scaled = scale == 1.0 ? mask : mask.resize(sw, sh);
+            scaled.setThreshold(255, 255, ImageProcessor.NO_LUT_UPDATE);
+            Roi outline = ij.plugin.filter.ThresholdToSelection.run(new ImagePlus("air", scaled));
+            if (outline != null) {
+                outline.setStrokeColor(KEY.get(2).colour());
+                outline.setStrokeWidth(1.0);
+                ov.add(outline);
+                TextRoi label = new TextRoi(2, Math.max(1, sh - 14), "air (automatic)", font);
+                label.setStrokeColor(KEY.get(2).colour());
+                ov.add(label);
+            }
         }
         imp.setOverlay(ov);
         return imp.flatten();

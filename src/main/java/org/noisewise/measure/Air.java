@@ -49,10 +49,17 @@ final class Air {
         }
         masks.add(last.mask());
         slices.add(slice);
+        String settled = switch (last.settling()) {
+            case FIXED_POINT -> String.format(Locale.ROOT, "self-consistent after %d iteration%s", last.iterations(),
+                    last.iterations() == 1 ? "" : "s");
+            case CYCLE -> String.format(Locale.ROOT, "two selections alternated after %d iterations: the pixels both "
+                    + "take are used", last.iterations());
+            case NOT_SETTLED -> String.format(Locale.ROOT, "still changing after %d iterations: the last selection is "
+                    + "used", last.iterations());
+        };
         notes.add(String.format(Locale.ROOT, "slice %d: automatic air: %d pixels of pure noise (%.1f%% of the slice) "
-                        + "in %d part%s, self-consistent after %d iteration%s%s", slice, last.pixels(), 100 * last.share(),
-                last.regions().size(), last.regions().size() == 1 ? "" : "s", last.iterations(),
-                last.iterations() == 1 ? "" : "s", channels == null ? " (window test for 1 channel: the channel count "
+                        + "in %d part%s, %s%s", slice, last.pixels(), 100 * last.share(),
+                last.regions().size(), last.regions().size() == 1 ? "" : "s", settled, channels == null ? " (window test for 1 channel: the channel count "
                         + "is estimated afterwards)" : ""));
         return last.regions();
     }

@@ -70,12 +70,19 @@ public final class QaMeasure {
      */
     public record Options(double fraction, PhaseDirection phase, Integer channels, Double fieldTesla, boolean limits,
                           String scanner, String coil, String protocol, int baseline, Path log, Path report,
-                          boolean force, int slice, Path trendDir, boolean repeats) {
+                          boolean force, int slice, Path trendDir, boolean repeats, boolean autoAir) {
+        public Options(double fraction, PhaseDirection phase, Integer channels, Double fieldTesla, boolean limits,
+                       String scanner, String coil, String protocol, int baseline, Path log, Path report,
+                       boolean force, int slice, Path trendDir, boolean repeats) {
+            this(fraction, phase, channels, fieldTesla, limits, scanner, coil, protocol, baseline, log, report, force,
+                    slice, trendDir, repeats, false);
+        }
+
         public Options(double fraction, PhaseDirection phase, Integer channels, Double fieldTesla, boolean limits,
                        String scanner, String coil, String protocol, int baseline, Path log, Path report,
                        boolean force, int slice) {
             this(fraction, phase, channels, fieldTesla, limits, scanner, coil, protocol, baseline, log, report, force,
-                    slice, null, false);
+                    slice, null, false, false);
         }
     }
 
@@ -162,9 +169,13 @@ public final class QaMeasure {
         progress.report(0.35, "Phantom QA: SNR and noise check");
         Progress stages = progress.part(0.35, 0.85);
         PhantomQa.Result r = PhantomQa.run(new PhantomQa.Input(frames, w, h, Double.NaN, o.fraction(), phase, pw, ph,
-                o.channels(), BackgroundValues.storage(first, plane), limits, placement),
+                o.channels(), BackgroundValues.storage(first, plane), limits, placement, o.autoAir()),
                 f -> stages.report(f, f < 0.75 ? "Phantom QA: uniformity windows" : "Phantom QA: non-uniformity"));
         progress.report(0.85, "Phantom QA: log and report");
+        if (r.air() != null) {
+            notes.add(String.format(Locale.ROOT, "background: automatic air, %d pixels of pure noise (%.1f%% of the "
+                    + "slice) instead of the placed background regions", r.air().pixels(), 100 * r.air().share()));
+        }
         String unit = ImagePlanes.valueUnit(first);
         String title = source != null ? source.getFileName().toString() : first.getTitle();
         ResultRow row = QaRows.row(title, o.slice(), unit, r);
@@ -375,8 +386,9 @@ public final class QaMeasure {
             html.paragraph(f, "flag");
         }
         html.heading("Regions");
-        html.image("Slice with the regions used (" + QaImages.LEGEND + ")", QaImages.png(QaImages.sliceWithRegions(
-                "regions", slice, w, h, QaRows.regions(r))));
+        html.image("Slice with the regions used (" + QaImages.LEGEND + (r.air() == null ? ""
+                        : "; the automatic air outlined in cyan") + ")", QaImages.png(QaImages.sliceWithRegions(
+                "regions", slice, w, h, QaRows.regions(r), null, r.air() == null ? null : r.air().mask())));
         html.heading("Results");
         html.resultTable(out.row(), "results");
         html.heading("Limits");

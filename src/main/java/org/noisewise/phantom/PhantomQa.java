@@ -3,6 +3,7 @@ package org.noisewise.phantom;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import org.noisewise.diagnose.AirFinder;
 import org.noisewise.diagnose.BackgroundCheck;
 import org.noisewise.diagnose.BackgroundDiagnostics;
 import org.noisewise.diagnose.PhaseDirection;
@@ -46,10 +47,19 @@ public final class PhantomQa {
      * @param storage       storage facts for the background checks
      * @param limits        published limits to apply, or null
      * @param placement     regions to use instead of automatic placement (the user's adjusted ones), or null
+     * @param autoAir       the background from all the air ({@link AirFinder}) instead of the placed regions
      */
     public record Input(float[][] frames, int width, int height, double threshold, double fraction,
                         PhaseDirection phase, double pixelWidthMm, double pixelHeightMm, Integer channels,
-                        BackgroundCheck.Storage storage, ActionLimits limits, QaRegions.Placement placement) {
+                        BackgroundCheck.Storage storage, ActionLimits limits, QaRegions.Placement placement,
+                        boolean autoAir) {
+        public Input(float[][] frames, int width, int height, double threshold, double fraction,
+                     PhaseDirection phase, double pixelWidthMm, double pixelHeightMm, Integer channels,
+                     BackgroundCheck.Storage storage, ActionLimits limits, QaRegions.Placement placement) {
+            this(frames, width, height, threshold, fraction, phase, pixelWidthMm, pixelHeightMm, channels, storage,
+                    limits, placement, false);
+        }
+
         public Input {
             // the list of frames is copied; the planes are read only
             frames = frames.clone();
@@ -66,12 +76,13 @@ public final class PhantomQa {
      *
      * @param signalMean the signal region's magnitude mean (uncorrected)
      * @param figures    corrected amplitude, sigma and SNR with intervals; {@code null} when withheld
+     * @param air        the automatic air, or null when the placed background regions were used
      */
     public record Result(QaRegions.Placement placement, Phantom phantom, String method, double signalMean,
                          CorrectedSnr figures, Verdict verdict, QaMetrics.Windows windows, double piu,
                          double nemaNonUniformity, double ghostingPercent, double[] sideMeans, ActionLimits limits,
                          Boolean piuPasses, Boolean ghostingPasses, BackgroundDiagnostics.Diagnosis backgroundDiagnosis,
-                         double[] backgroundValues, List<Warning> warnings) {
+                         double[] backgroundValues, List<Warning> warnings, AirFinder.Result air) {
         private static final Interval NONE = new Interval(Double.NaN, Double.NaN);
 
         public Result {
@@ -134,6 +145,13 @@ public final class PhantomQa {
         List<Warning> warnings = new ArrayList<>(pl.warnings());
         Region signal = pl.signal().region();
         List<Region> bg = pl.background().stream().map(PlacedRegion::region).toList();
+        AirFinder.Result air = null;
+        if (in.autoAir()) {
+            air = AirFinder.find(first, w, h, in.channels() == null ? 0 : in.channels(), in.storage(), signal);
+            bg = air.regions();
+            pl = new QaRegions.Placement(pl.signal(), List.of(), pl.top(), pl.bottom(), pl.left(), pl.right(),
+                    pl.windowW(), pl.windowH(), pl.warnings());
+        }
 
         String method;
         CorrectedSnr figures;
@@ -217,6 +235,6 @@ public final class PhantomQa {
             }
         }
         return new Result(pl, phantom, method, signalMean, figures, verdict, win, piu, nu, ghosting, sides, lim, piuOk,
-                ghostOk, diag, bgValues, warnings);
+                ghostOk, diag, bgValues, warnings, air);
     }
 }

@@ -37,6 +37,10 @@ public final class QaRows {
                 .add("limits.ghosting_pass", "Ghosting within limit",
                         r.ghostingPasses() == null ? null : r.ghostingPasses() ? "yes" : "no")
                 .add("pixels.signal", "Signal pixels", r.placement().signal().region().size());
+        if (r.air() != null) {
+            row.add("pixels.background", "Background pixels", r.air().pixels())
+                    .add("background_share", "Air share [%]", 100 * r.air().share());
+        }
         for (PlacedRegion p : regions(r)) {
             String k = "regions." + p.name().replace(' ', '_');
             row.add(k + ".shape", null, p.kind() == PlacedRegion.Kind.OVAL ? "oval" : "rectangle");

@@ -1,6 +1,7 @@
 package org.noisewise.imagej;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -101,5 +102,30 @@ class AutomaticAirFijiTest {
         assertEquals("valid", rt.getStringValue("Verdict", 0));
         assertTrue(rt.getValue("Air share [%]", 0) > 40);
         assertEquals(0, rm.getCount());
+    }
+
+    /** Phantom QA with Background: Automatic (all air): the command line's figures, the air drawn, no bg regions added. */
+    @Test
+    void phantomQaWithAllTheAir() throws Exception {
+        ImagePlus imp = ImageFiles.open(Path.of("sample-images", HeadSample.FILE));
+        imp.show();
+        String before = TestImages.checksum(imp);
+        IJ.run(imp, "Phantom QA...", "second=None regions=Automatic background=[Automatic (all air)] fraction=0.75 "
+                + "channels=1");
+        ResultsTable rt = ResultsTable.getResultsTable("Phantom QA - " + imp.getTitle());
+        assertNotNull(rt);
+        JsonObject o = cli("qa", "sample-images/" + HeadSample.FILE, "--background", "auto", "--json");
+        assertEquals("valid", rt.getStringValue("Verdict", 0));
+        assertEquals(o.get("sigma").getAsDouble(), rt.getValue("Sigma (corrected) [a.u.]", 0), 1e-9);
+        assertEquals(o.get("background_share").getAsDouble(), rt.getValue("Air share [%]", 0), 1e-9);
+        boolean air = false;
+        for (Roi r : imp.getOverlay().toArray()) {
+            air |= "air (automatic)".equals(r.getName());
+        }
+        assertTrue(air, "the air drawn on the image");
+        for (Roi r : rm.getRoisAsArray()) {
+            assertFalse(r.getName().startsWith("bg"), "no placed background regions added: " + r.getName());
+        }
+        assertEquals(before, TestImages.checksum(imp));
     }
 }

@@ -101,6 +101,8 @@ public class DemoCommand implements Callable<Integer> {
         dicomSeries();
         heading("9. Contrast-to-noise ratio of two tissues, corrected for the magnitude bias");
         contrast();
+        heading("10. Sigma without drawn air: all the air, and a noise-only scan where noise varies");
+        airAndNoiseScan();
         out.println();
         out.println("Hand method = signal mean / SD of air, uncorrected: too high by 1/0.655 = 1.53x for one channel.");
         out.println("For image-quality QA and research only, not diagnosis; acceptance decisions rest with your site's");
@@ -171,6 +173,63 @@ public class DemoCommand implements Callable<Integer> {
         }
         out.printf(Locale.ROOT, ROW, "CNR plain (S - C) / sigma, background", fmt(TissueSample.trueCnr()),
                 fmt(((Number) b.get("cnr_magnitude")).doubleValue()), "biased low");
+    }
+
+    /**
+     * The head-like sample with all the air found automatically (corners drawn by hand take in its
+     * ghost), and the accelerated pair with its noise-only scan (the corners see a third of the noise
+     * in the middle).
+     */
+    private void airAndNoiseScan() throws InputException {
+        ImagePlus head = ImageFiles.open(samples.resolve(org.noisewise.sample.HeadSample.FILE));
+        Rect hs = org.noisewise.sample.HeadSample.SIGNAL;
+        int n = org.noisewise.sample.HeadSample.SIZE;
+        Region hsig = Region.rectangle("signal", hs.x(), hs.y(), hs.w(), hs.h(), n, n);
+        var auto = BackgroundMeasure.run(head, org.noisewise.sample.HeadSample.FILE, Roles.of(hsig, List.of())
+                .withAutoAir(), new BackgroundMeasure.Options(1, null, null), new int[] {1}, null, Progress.NONE)
+                .rows().get(0);
+        List<Region> corners = List.of(Region.rectangle("bg", 8, 2, 24, 24, n, n),
+                Region.rectangle("bg", 96, 2, 24, 24, n, n), Region.rectangle("bg", 8, 102, 24, 24, n, n),
+                Region.rectangle("bg", 96, 102, 24, 24, n, n));
+        var drawn = BackgroundMeasure.run(head, org.noisewise.sample.HeadSample.FILE, Roles.of(hsig, corners),
+                new BackgroundMeasure.Options(1, null, null), new int[] {1}, null, Progress.NONE).rows().get(0);
+        out.printf(Locale.ROOT, "%n%s  (single channel, 8%% ghost, zero-filled side bands)%n",
+                org.noisewise.sample.HeadSample.FILE);
+        out.printf(Locale.ROOT, ROW, "", "true", "measured", "95% interval");
+        out.printf(Locale.ROOT, ROW, "sigma, automatic air (" + auto.get("pixels.background") + " px)",
+                fmt(org.noisewise.sample.HeadSample.SIGMA), fmt(num(auto, "sigma")), ci(num(auto, "sigma_ci95[0]"),
+                        num(auto, "sigma_ci95[1]")));
+        out.printf(Locale.ROOT, ROW, "sigma, four corners drawn by hand", fmt(org.noisewise.sample.HeadSample.SIGMA),
+                fmt(num(drawn, "sigma")), ci(num(drawn, "sigma_ci95[0]"), num(drawn, "sigma_ci95[1]")));
+        out.printf(Locale.ROOT, ROW, "SNR (corrected), automatic air", fmt(org.noisewise.sample.HeadSample.trueSnr()),
+                fmt(num(auto, "snr")), ci(num(auto, "snr_ci95[0]"), num(auto, "snr_ci95[1]")));
+
+        ImagePlus img = ImageFiles.open(samples.resolve(org.noisewise.sample.NoiseScanSample.IMAGE));
+        ImagePlus scan = ImageFiles.open(samples.resolve(org.noisewise.sample.NoiseScanSample.NOISE));
+        Rect c = org.noisewise.sample.NoiseScanSample.CENTRE;
+        Region csig = Region.rectangle("signal", c.x(), c.y(), c.w(), c.h(), img.getWidth(), img.getHeight());
+        var withScan = org.noisewise.measure.NoiseScanMeasure.run(img, org.noisewise.sample.NoiseScanSample.IMAGE, scan,
+                org.noisewise.sample.NoiseScanSample.NOISE, Roles.of(csig, List.of()),
+                new org.noisewise.measure.NoiseScanMeasure.Options(null, 15, false), new int[] {1}, Progress.NONE)
+                .rows().get(0);
+        List<Region> air = List.of(Region.rectangle("bg", 2, 2, 20, 20, 128, 128),
+                Region.rectangle("bg", 106, 2, 20, 20, 128, 128), Region.rectangle("bg", 2, 106, 20, 20, 128, 128),
+                Region.rectangle("bg", 106, 106, 20, 20, 128, 128));
+        var fromAir = BackgroundMeasure.run(img, org.noisewise.sample.NoiseScanSample.IMAGE, Roles.of(csig, air),
+                new BackgroundMeasure.Options(org.noisewise.sample.NoiseScanSample.CHANNELS, null, null), new int[] {1},
+                null, Progress.NONE).rows().get(0);
+        double truth = org.noisewise.sample.NoiseScanSample.trueSnr(c);
+        out.printf(Locale.ROOT, "%n%s with %s  (4 channels, g-factor 1.8 in the middle)%n",
+                org.noisewise.sample.NoiseScanSample.IMAGE, org.noisewise.sample.NoiseScanSample.NOISE);
+        out.printf(Locale.ROOT, ROW, "", "true", "measured", "95% interval");
+        out.printf(Locale.ROOT, ROW, "SNR (corrected), noise-only scan", fmt(truth), fmt(num(withScan, "snr")),
+                ci(num(withScan, "snr_ci95[0]"), num(withScan, "snr_ci95[1]")));
+        out.printf(Locale.ROOT, ROW, "SNR (corrected), air in the corners", fmt(truth), fmt(num(fromAir, "snr")),
+                "the corners' noise is not the middle's");
+    }
+
+    private static double num(org.noisewise.report.ResultRow row, String key) {
+        return ((Number) row.get(key)).doubleValue();
     }
 
     /** The bundled protocol series: 2 against 8 averages (predicted ratio 2), and R = 2 with a g ramp. */

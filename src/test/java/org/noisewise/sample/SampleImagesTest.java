@@ -134,6 +134,8 @@ class SampleImagesTest {
         assertTrue(text.contains("warning [low_snr]"));
         assertTrue(text.contains("medical physicist"));
         assertTrue(text.contains("read as 4 slices x 10 repeats from DICOM positions"), "the DICOM series sample");
+        assertTrue(text.contains("sigma, automatic air ("), "the head-like sample with all the air");
+        assertTrue(text.contains("SNR (corrected), noise-only scan"), "the accelerated pair with its noise-only scan");
     }
 
     /**

@@ -219,7 +219,7 @@ public final class NoiseScanMeasure {
         if (signal != null) {
             at = NoiseScan.sigma(np, signal, c);
             variation = NoiseScan.ratio(at, bg);
-            if (variation.differs(VARIATION, org.noisewise.estimate.Levels.Z95)) {
+            if (variation.differs(VARIATION, SCALE_Z)) {
                 warnings.add(new Warning("noise_varies", String.format(Locale.ROOT, "the noise-only scan's sigma at the "
                         + "signal region is %.3f times its sigma in the background regions (95%% interval %.3f-%.3f): "
                         + "noise varies over the image (parallel imaging, filters), so the background sigma misstates "
@@ -231,7 +231,11 @@ public final class NoiseScanMeasure {
         return new CheckPart(bg, scale, at, variation, warnings, verdict);
     }
 
-    /** Variations of the noise within this share are not reported (the background sigma is close enough). */
+    /**
+     * Variations of the noise within this share are not reported (the background sigma is close enough);
+     * beyond it, a variation is reported at {@value #SCALE_Z} standard errors (an invalid verdict needs
+     * more than a 95% test: one clean image in twenty would be called invalid).
+     */
     static final double VARIATION = 0.05;
 
     record CheckPart(SigmaEstimate background, NoiseScan.Ratio scale, SigmaEstimate atSignal,

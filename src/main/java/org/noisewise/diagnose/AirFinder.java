@@ -419,4 +419,99 @@ public final class AirFinder {
                 + "(%.1f%% of the slice; at least %d are needed): %s. Mark background regions in air by hand, or use "
                 + "the difference method (two acquisitions)", found, 100.0 * found / n, MIN_PIXELS, why));
     }
+
+    /**
+     * How far {@code u = mean(M^4) / mean(M^2)^2} of {@code n} pixels lies from its chi(2L) value
+     * {@code (L + 1) / L} ({@code M^2} is Gamma with shape L), in standard errors (delta method on the
+     * Gamma moments): faint signal makes it smaller, a mixture of levels larger.
+     */
+    static double kurtosisZ(double u, int n, int channels) {
+        double l = channels;
+        double m1 = l;
+        double m2 = l * (l + 1);
+        double m3 = l * (l + 1) * (l + 2);
+        double m4 = l * (l + 1) * (l + 2) * (l + 3);
+        double expected = m2 / (m1 * m1);
+        double da = -2 * m2 / (m1 * m1 * m1);
+        double db = 1 / (m1 * m1);
+        double var = (da * da * (m2 - m1 * m1) + db * db * (m4 - m2 * m2) + 2 * da * db * (m3 - m1 * m2)) / n;
+        return (u - expected) / Math.sqrt(var);
+    }
+
+    /** Pure noise louder than the air's, found in blocks the selection left out. */
+    public record Louder(int blocks, double ratio) {
+    }
+
+    /** Blocks counted as louder noise: at least this many. */
+    public static final int LOUDER_BLOCKS = 2;
+    /** Louder by more than this factor of the air's sigma. */
+    public static final double LOUDER_RATIO = 1.3;
+
+    /**
+     * Whether noise varies over the slice where the air cannot show it: the {@value NoiseScan#BLOCK}-pixel
+     * blocks holding no air, no excluded pixel and no zero whose values spread as pure chi(2L) noise does
+     * (the scale-free statistic of {@link NoiseScan} and {@code mean(M^4) / mean(M^2)^2} each within 3
+     * standard errors of its null value; the object and ghosts are less spread, mixtures of levels more) but at a sigma more than {@value #LOUDER_RATIO} times the
+     * air's. Parallel imaging, filters and coil sensitivity raise the noise in air the window test then
+     * takes for structure.
+     *
+     * @return the louder blocks (at least {@value #LOUDER_BLOCKS}) and the largest ratio, or null
+     */
+    public static Louder louderNoise(float[] pixels, int width, int height, boolean[] air, int channels,
+                                     Region exclude) {
+        boolean[] ex = new boolean[pixels.length];
+        if (exclude != null) {
+            for (int i : exclude.indices()) {
+                ex[i] = true;
+            }
+        }
+        double airSum = 0;
+        int airCount = 0;
+        for (int i = 0; i < pixels.length; i++) {
+            if (air[i]) {
+                airSum += (double) pixels[i] * pixels[i];
+                airCount++;
+            }
+        }
+        if (airCount == 0) {
+            return null;
+        }
+        double airMeanSquare = airSum / airCount;
+        int count = 0;
+        double worst = 0;
+        for (int[] b : NoiseScan.blocks(width, height)) {
+            double s1 = 0;
+            double s2 = 0;
+            double s4 = 0;
+            int n = 0;
+            boolean skip = false;
+            for (int y = b[1]; y < b[1] + b[3] && !skip; y++) {
+                for (int x = b[0]; x < b[0] + b[2]; x++) {
+                    int i = y * width + x;
+                    if (air[i] || ex[i] || !(pixels[i] > 0)) {
+                        skip = true;
+                        break;
+                    }
+                    double m2 = (double) pixels[i] * pixels[i];
+                    s1 += pixels[i];
+                    s2 += m2;
+                    s4 += m2 * m2;
+                    n++;
+                }
+            }
+            if (skip || n < NoiseScan.BLOCK * NoiseScan.BLOCK / 2) {
+                continue;
+            }
+            double a = s1 / n;
+            double q = s2 / n;
+            double z = NoiseScan.structureZ(new double[] {a * a / q, n}, channels, 1.0);
+            double zk = kurtosisZ(s4 / n / (q * q), n, channels);
+            double ratio = Math.sqrt(q / airMeanSquare);
+            if (Math.abs(z) < 3 && Math.abs(zk) < 3 && ratio > LOUDER_RATIO) {
+                count++;
+                worst = Math.max(worst, ratio);
+            }
+        }
+        return count >= LOUDER_BLOCKS ? new Louder(count, worst) : null;
+    }
 }

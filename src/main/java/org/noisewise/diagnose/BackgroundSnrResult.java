@@ -50,4 +50,12 @@ public record BackgroundSnrResult(int channels, SigmaEstimator estimator,
     public Verdict verdict() {
         return diagnosis.verdict();
     }
+
+    /** The same result with one more reason, the verdict at least {@code atLeast}; the figures are kept. */
+    public BackgroundSnrResult withReason(Warning reason, Verdict atLeast) {
+        List<Warning> w = new java.util.ArrayList<>(warnings);
+        w.add(reason);
+        return new BackgroundSnrResult(channels, estimator, estimates, signal, background, figures,
+                diagnosis.withReason(reason, atLeast), w);
+    }
 }

@@ -64,6 +64,26 @@ final class Air {
         return last.regions();
     }
 
+    /**
+     * With automatic air, the {@code noise_varies} reason when blocks the air left out hold pure noise
+     * louder than the air's ({@link AirFinder#louderNoise}); null otherwise.
+     */
+    org.noisewise.estimate.Warning louderNoise(float[] pixels, int channels) {
+        if (last == null) {
+            return null;
+        }
+        AirFinder.Louder l = AirFinder.louderNoise(pixels, width, height, last.mask(), channels, excluded());
+        if (l == null) {
+            return null;
+        }
+        return new org.noisewise.estimate.Warning("noise_varies", String.format(Locale.ROOT, "%d blocks of 16x16 "
+                + "pixels away from the air found spread like pure noise at up to %.2f times the air's sigma: noise "
+                + "varies over the image (parallel imaging, filters, coil sensitivity), or a faint ghost lies there, so "
+                + "the air's sigma may not be the signal region's; measure with a noise-only scan, or acquire twice "
+                + "for the difference method",
+                l.blocks(), l.ratio()));
+    }
+
     /** Adds the air share to the row of the plane just measured (automatic air only). */
     ResultRow addShare(ResultRow row) {
         return last == null ? row : row.add("background_share", "Air share [%]", 100 * last.share());

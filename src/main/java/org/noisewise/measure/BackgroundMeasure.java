@@ -83,6 +83,10 @@ public final class BackgroundMeasure {
                 po = po.withDifference(new BackgroundSnr.DifferenceSigma(d.sigma(), d.sigmaCi95()));
             }
             BackgroundSnrResult r = BackgroundSnr.analyze(px, w, h, signal, background, po);
+            org.noisewise.estimate.Warning louder = air.louderNoise(px, r.channels());
+            if (louder != null) {
+                r = r.withReason(louder, org.noisewise.diagnose.Verdict.QUESTIONABLE);
+            }
             if (r.diagnosis().channelsEstimated() && r.diagnosis().channelEstimate() != null) {
                 notes.add(String.format(Locale.ROOT, "slice %d: channel count estimated from the background: %.2f "
                                 + "(95%% interval %.2f-%.2f), %d used", n, r.diagnosis().channelEstimate().channels(),

@@ -74,6 +74,10 @@ public final class CheckMeasure {
             BackgroundDiagnostics.Diagnosis d = BackgroundDiagnostics.diagnose(px, imp.getWidth(), imp.getHeight(),
                     signal, background, noise, new BackgroundDiagnostics.Options(o.channels(), phase,
                             BackgroundValues.storage(imp, n)));
+            Warning louder = air.louderNoise(px, d.channels());
+            if (louder != null) {
+                d = d.withReason(louder, org.noisewise.diagnose.Verdict.QUESTIONABLE);
+            }
             NoiseScanMeasure.CheckPart part = null;
             if (scan != null) {
                 int sp = NoiseScanMeasure.scanPlane(imp, title, scan, scanTitle, n);

@@ -76,6 +76,11 @@ class NoiseScanCliTest {
                 "4", "--json"), CORNERS)));
         assertFalse(holds(corners.getAsJsonArray("snr_ci95"), NoiseScanSample.trueSnr(NoiseScanSample.CENTRE)));
         assertTrue(corners.get("snr").getAsDouble() > 1.5 * NoiseScanSample.trueSnr(NoiseScanSample.CENTRE));
+        // automatic air keeps the quietest air, and says that louder pure noise lies outside it
+        JsonObject auto = json(CliRunner.run("background", IMAGE, "--signal", CENTRE, "--background", "auto",
+                "--channels", "4", "--json"));
+        assertEquals("questionable", auto.get("verdict").getAsString());
+        assertTrue(auto.get("warnings").toString().contains("noise_varies"), auto.get("warnings").toString());
         assertArrayEquals(before, Files.readAllBytes(Path.of(NOISE)), "the scan is never changed");
     }
 

@@ -163,6 +163,56 @@ class AirFinderTest {
         assertTrue(failures.isEmpty(), failures.toString());
     }
 
+    /**
+     * Louder noise the air leaves out: on clean and ghosted disks (no variation of the noise) it is
+     * rarely reported; with sigma rising 2x from left to right (as parallel imaging makes it) it is
+     * reported in nearly every image.
+     */
+    @Test
+    void louderNoiseOutsideTheAir() {
+        int trials = 60;
+        StringBuilder log = new StringBuilder();
+        List<String> failures = new ArrayList<>();
+        for (int l : new int[] {1, 4, 8}) {
+            int[] clean = new int[1];
+            int[] ghosted = new int[1];
+            int[] ramp = new int[1];
+            for (int t = 0; t < trials; t++) {
+                SplittableRandom rng = new SplittableRandom(77_000L * l + t);
+                clean[0] += louder(disk(rng, l, 0.0), l) ? 1 : 0;
+                ghosted[0] += louder(disk(rng, l, 0.08), l) ? 1 : 0;
+                float[] px = disk(rng, l, 0.0);
+                float[] noise = disk(rng, l, 0.0);
+                // twice the noise at the right edge: the air's noise scaled by (1 + x / (N - 1)) in quadrature
+                for (int i = 0; i < px.length; i++) {
+                    double f = 1.0 + (double) (i % N) / (N - 1);
+                    boolean inDisk = Math.hypot(i % N + 0.5 - N / 2.0, i / N + 0.5 - N / 2.0) <= 40;
+                    if (!inDisk) {
+                        px[i] = (float) (px[i] * f);
+                    }
+                }
+                ramp[0] += louder(px, l) ? 1 : 0;
+            }
+            String line = String.format(Locale.ROOT, "L=%d: louder noise reported in %d clean, %d ghosted, %d of %d "
+                    + "images with a 2x ramp", l, clean[0], ghosted[0], ramp[0], trials);
+            log.append(line).append('\n');
+            if (clean[0] > trials / 20 || ghosted[0] > trials / 20 || ramp[0] < 0.9 * trials) {
+                failures.add(line);
+            }
+        }
+        System.out.print(log);
+        assertTrue(failures.isEmpty(), failures.toString());
+    }
+
+    private static boolean louder(float[] px, int l) {
+        try {
+            AirFinder.Result r = AirFinder.find(px, N, N, l, BackgroundCheck.Storage.floatingPoint(), null);
+            return AirFinder.louderNoise(px, N, N, r.mask(), l, null) != null;
+        } catch (InputException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
     /** Too little air: a masked image is refused, saying how much air and why. */
     @Test
     void maskedImageRefused() {

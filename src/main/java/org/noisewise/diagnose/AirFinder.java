@@ -442,6 +442,16 @@ public final class AirFinder {
     public record Louder(int blocks, double ratio) {
     }
 
+    /** The {@code noise_varies} reason for louder noise outside the air. */
+    public static org.noisewise.estimate.Warning louderWarning(Louder l) {
+        return new org.noisewise.estimate.Warning("noise_varies", String.format(Locale.ROOT, "%d blocks of 16x16 "
+                + "pixels away from the air found spread like pure noise at up to %.2f times the air's sigma: noise "
+                + "varies over the image (parallel imaging, filters, coil sensitivity), or a faint ghost lies there, so "
+                + "the air's sigma may not be the signal region's; measure with a noise-only scan, or acquire twice "
+                + "for the difference method",
+                l.blocks(), l.ratio()));
+    }
+
     /** Blocks counted as louder noise: at least this many. */
     public static final int LOUDER_BLOCKS = 2;
     /** Louder by more than this factor of the air's sigma. */

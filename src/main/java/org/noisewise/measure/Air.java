@@ -76,12 +76,7 @@ final class Air {
         if (l == null) {
             return null;
         }
-        return new org.noisewise.estimate.Warning("noise_varies", String.format(Locale.ROOT, "%d blocks of 16x16 "
-                + "pixels away from the air found spread like pure noise at up to %.2f times the air's sigma: noise "
-                + "varies over the image (parallel imaging, filters, coil sensitivity), or a faint ghost lies there, so "
-                + "the air's sigma may not be the signal region's; measure with a noise-only scan, or acquire twice "
-                + "for the difference method",
-                l.blocks(), l.ratio()));
+        return AirFinder.louderWarning(l);
     }
 
     /** Adds the air share to the row of the plane just measured (automatic air only). */

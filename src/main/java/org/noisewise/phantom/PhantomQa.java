@@ -200,6 +200,13 @@ public final class PhantomQa {
             verdict = r.verdict();
             diag = r.diagnosis();
             warnings.addAll(r.warnings());
+            if (air != null) {
+                AirFinder.Louder louder = AirFinder.louderNoise(first, w, h, air.mask(), r.channels(), signal);
+                if (louder != null) {
+                    warnings.add(AirFinder.louderWarning(louder));
+                    verdict = verdict.worst(Verdict.QUESTIONABLE);
+                }
+            }
         }
 
         done.accept(0.5);

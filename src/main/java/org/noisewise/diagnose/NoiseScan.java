@@ -303,43 +303,19 @@ public final class NoiseScan {
         if (window < 3 || window % 2 == 0) {
             throw new IllegalArgumentException("window must be odd and at least 3, was " + window);
         }
-        int w1 = width + 1;
-        double[] sum = new double[w1 * (height + 1)];
-        int[] cnt = new int[w1 * (height + 1)];
-        boolean[] usable = check.usable();
-        for (int y = 0; y < height; y++) {
-            double rs = 0;
-            int rc = 0;
-            for (int x = 0; x < width; x++) {
-                int i = y * width + x;
-                if (usable[i]) {
-                    rs += (double) noise[i] * noise[i];
-                    rc++;
-                }
-                sum[(y + 1) * w1 + x + 1] = sum[y * w1 + x + 1] + rs;
-                cnt[(y + 1) * w1 + x + 1] = cnt[y * w1 + x + 1] + rc;
-            }
-        }
-        int r = window / 2;
+        double[][] local = windowMeanSquare(noise, width, height, check.usable(), window);
         int l = check.channels();
         double sheppard = check.step() > 0 ? check.step() * check.step() / 12.0 : 0.0;
         double minCount = window * window / 4.0;
         float[] map = new float[noise.length];
-        for (int y = 0; y < height; y++) {
-            int y0 = Math.max(0, y - r);
-            int y1 = Math.min(height, y + r + 1);
-            for (int x = 0; x < width; x++) {
-                int x0 = Math.max(0, x - r);
-                int x1 = Math.min(width, x + r + 1);
-                int c = cnt[y1 * w1 + x1] - cnt[y0 * w1 + x1] - cnt[y1 * w1 + x0] + cnt[y0 * w1 + x0];
-                if (c < minCount) {
-                    map[y * width + x] = Float.NaN;
-                    continue;
-                }
-                double s = sum[y1 * w1 + x1] - sum[y0 * w1 + x1] - sum[y1 * w1 + x0] + sum[y0 * w1 + x0];
-                double v = Math.max(0.0, s / c - sheppard) / (2.0 * l);
-                map[y * width + x] = (float) (Math.sqrt(v) / rootBias(2.0 * l * c / check.inflation()));
+        for (int i = 0; i < map.length; i++) {
+            double c = local[1][i];
+            if (c < minCount) {
+                map[i] = Float.NaN;
+                continue;
             }
+            double v = Math.max(0.0, local[0][i] - sheppard) / (2.0 * l);
+            map[i] = (float) (Math.sqrt(v) / rootBias(2.0 * l * c / check.inflation()));
         }
         return map;
     }
@@ -472,6 +448,15 @@ public final class NoiseScan {
 
     /** The mean of {@code M^2} over the usable pixels of the {@value #NORMALISER}-pixel window around each pixel. */
     static double[] localMeanSquare(float[] noise, int width, int height, boolean[] usable) {
+        return windowMeanSquare(noise, width, height, usable, NORMALISER)[0];
+    }
+
+    /**
+     * {@code [0]}: the mean of {@code M^2} over the usable pixels of the {@code window}-pixel square around
+     * each pixel (clipped at the edge; 0 where none is usable), {@code [1]}: how many pixels it holds;
+     * from summed-area tables.
+     */
+    static double[][] windowMeanSquare(float[] noise, int width, int height, boolean[] usable, int window) {
         int w1 = width + 1;
         double[] sum = new double[w1 * (height + 1)];
         int[] cnt = new int[w1 * (height + 1)];
@@ -488,8 +473,9 @@ public final class NoiseScan {
                 cnt[(y + 1) * w1 + x + 1] = cnt[y * w1 + x + 1] + rc;
             }
         }
-        int r = NORMALISER / 2;
-        double[] out = new double[noise.length];
+        int r = window / 2;
+        double[] mean = new double[noise.length];
+        double[] count = new double[noise.length];
         for (int y = 0; y < height; y++) {
             int y0 = Math.max(0, y - r);
             int y1 = Math.min(height, y + r + 1);
@@ -497,11 +483,12 @@ public final class NoiseScan {
                 int x0 = Math.max(0, x - r);
                 int x1 = Math.min(width, x + r + 1);
                 int c = cnt[y1 * w1 + x1] - cnt[y0 * w1 + x1] - cnt[y1 * w1 + x0] + cnt[y0 * w1 + x0];
-                out[y * width + x] = c == 0 ? 0.0
+                count[y * width + x] = c;
+                mean[y * width + x] = c == 0 ? 0.0
                         : (sum[y1 * w1 + x1] - sum[y0 * w1 + x1] - sum[y1 * w1 + x0] + sum[y0 * w1 + x0]) / c;
             }
         }
-        return out;
+        return new double[][] {mean, count};
     }
 
     /**

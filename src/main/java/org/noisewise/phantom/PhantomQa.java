@@ -124,6 +124,11 @@ public final class PhantomQa {
         return run(in, null);
     }
 
+    /** The storage step of the frames (0: continuous), for Sheppard's correction of the difference and repeated sigma. */
+    private static double step(Input in) {
+        return in.storage() == null ? 0.0 : in.storage().step();
+    }
+
     /**
      * @param progress receives the fraction done (0..1) after each stage (SNR, uniformity windows,
      *                 non-uniformity); may be null
@@ -167,7 +172,7 @@ public final class PhantomQa {
         double signalMean = SampleStats.of(signal.values(first)).mean();
         if (in.frames().length == 2) {
             DifferenceSnrResult d = DifferenceSnr.analyze(first, in.frames()[1], w, signal,
-                    in.channels() == null ? 1 : in.channels());
+                    in.channels() == null ? 1 : in.channels(), step(in));
             method = "difference";
             figures = d.figures();
             warnings.addAll(d.warnings());
@@ -179,7 +184,7 @@ public final class PhantomQa {
             RepeatedAcquisitions.Maps m = RepeatedAcquisitions.maps(in.frames(), w, h, null);
             reference = m.mean();
             RepeatedSnrResult r = RepeatedAcquisitions.summarize(m, RepeatedAcquisitions.Frames.of(in.frames()), signal,
-                    in.channels() == null ? 1 : in.channels());
+                    in.channels() == null ? 1 : in.channels(), step(in));
             method = "repeated";
             figures = r.figures();
             signalMean = r.signalMean();

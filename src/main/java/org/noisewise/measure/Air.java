@@ -79,6 +79,46 @@ final class Air {
         return AirFinder.louderWarning(l);
     }
 
+    /** Slices larger than this (pixels) are not cross-checked against the automatic air (its cost). */
+    static final long CROSS_CHECK_MAX = 2048L * 2048L;
+
+    /**
+     * With drawn background regions, their ML sigma against that of the air {@link AirFinder} finds in the
+     * same slice: when the regions' sigma is more than 5% higher at 3.29 standard errors, the reason
+     * {@code regions_above_air} (ghosts or structure in the regions, which the ghost test cannot see when
+     * it covers them all alike, or noise that varies over the image). Null when the regions agree, when
+     * too little air is found to compare, or for slices above {@link #CROSS_CHECK_MAX} pixels.
+     */
+    org.noisewise.estimate.Warning crossCheck(float[] pixels, int channels, BackgroundCheck.Storage storage,
+                                              List<Region> drawn) throws InputException {
+        if (roles.autoAir() || (long) width * height > CROSS_CHECK_MAX || drawn.isEmpty()) {
+            return null;
+        }
+        AirFinder.Result found;
+        try {
+            found = AirFinder.find(pixels, width, height, channels, storage, excluded());
+        } catch (InputException e) {
+            return null;
+        }
+        double step = storage == null ? 0.0 : storage.step();
+        var regions = org.noisewise.estimate.BackgroundNoise.measure(pixels, width, drawn).estimates(channels, step)
+                .get(org.noisewise.estimate.SigmaEstimator.ML);
+        var air = org.noisewise.estimate.BackgroundNoise.measure(pixels, width, found.regions())
+                .estimates(channels, step).get(org.noisewise.estimate.SigmaEstimator.ML);
+        if (!(regions.sigma() > 0 && air.sigma() > 0)) {
+            return null;
+        }
+        org.noisewise.diagnose.NoiseScan.Ratio r = org.noisewise.diagnose.NoiseScan.ratio(regions, air);
+        if (!(r.value() > 1 && r.differs(0.05, 3.29))) {
+            return null;
+        }
+        return new org.noisewise.estimate.Warning("regions_above_air", String.format(Locale.ROOT, "the background "
+                + "regions' sigma is %.2f times that of the %d pixels of pure noise found automatically in this slice "
+                + "(95%% interval %.2f-%.2f): the regions hold ghosts or other structure, or noise varies over the "
+                + "image; measure with the automatic air instead, or redraw the regions in clean air", r.value(),
+                found.pixels(), r.ci95().low(), r.ci95().high()));
+    }
+
     /** Adds the air share to the row of the plane just measured (automatic air only). */
     ResultRow addShare(ResultRow row) {
         return last == null ? row : row.add("background_share", "Air share [%]", 100 * last.share());

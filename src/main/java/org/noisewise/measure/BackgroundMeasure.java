@@ -87,6 +87,11 @@ public final class BackgroundMeasure {
             if (louder != null) {
                 r = r.withReason(louder, org.noisewise.diagnose.Verdict.QUESTIONABLE);
             }
+            org.noisewise.estimate.Warning above = air.crossCheck(px, r.channels(), BackgroundValues.storage(imp, n),
+                    background);
+            if (above != null) {
+                r = r.withReason(above, org.noisewise.diagnose.Verdict.QUESTIONABLE);
+            }
             if (r.diagnosis().channelsEstimated() && r.diagnosis().channelEstimate() != null) {
                 notes.add(String.format(Locale.ROOT, "slice %d: channel count estimated from the background: %.2f "
                                 + "(95%% interval %.2f-%.2f), %d used", n, r.diagnosis().channelEstimate().channels(),

@@ -78,6 +78,10 @@ public final class CheckMeasure {
             if (louder != null) {
                 d = d.withReason(louder, org.noisewise.diagnose.Verdict.QUESTIONABLE);
             }
+            Warning above = air.crossCheck(px, d.channels(), BackgroundValues.storage(imp, n), background);
+            if (above != null) {
+                d = d.withReason(above, org.noisewise.diagnose.Verdict.QUESTIONABLE);
+            }
             NoiseScanMeasure.CheckPart part = null;
             if (scan != null) {
                 int sp = NoiseScanMeasure.scanPlane(imp, title, scan, scanTitle, n);

@@ -56,6 +56,9 @@ class AutomaticAirCliTest {
                 "--background", "96,2,24,24", "--background", "8,102,24,24", "--background", "96,102,24,24", "--json"));
         assertFalse(holds(corners.getAsJsonArray("sigma_ci95"), HeadSample.SIGMA));
         assertTrue(corners.get("sigma").getAsDouble() > 1.2 * HeadSample.SIGMA);
+        // the ghost covers all four corners alike; the cross-check against the automatic air says so
+        assertEquals("questionable", corners.get("verdict").getAsString());
+        assertTrue(corners.get("warnings").toString().contains("regions_above_air"), corners.get("warnings").toString());
     }
 
     @Test

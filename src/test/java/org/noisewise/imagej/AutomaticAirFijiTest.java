@@ -6,25 +6,17 @@ import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.google.gson.JsonObject;
-import com.google.gson.JsonParser;
 import ij.IJ;
 import ij.ImagePlus;
 import ij.gui.Overlay;
 import ij.gui.Roi;
 import ij.measure.ResultsTable;
-import ij.plugin.frame.RoiManager;
 import java.awt.Color;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Path;
-import org.junit.jupiter.api.AfterEach;
-import org.junit.jupiter.api.BeforeAll;
-import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
-import org.noisewise.cli.NoisewiseCli;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.sample.HeadSample;
-import org.noisewise.testing.ImageJHarness;
+import org.noisewise.testing.FijiSession;
 import org.noisewise.testing.TestImages;
 
 /**
@@ -33,31 +25,9 @@ import org.noisewise.testing.TestImages;
  * 25), with the same figures as the command line, the air drawn as an overlay, and the image and the
  * ROI Manager untouched.
  */
-class AutomaticAirFijiTest {
+class AutomaticAirFijiTest extends FijiSession {
 
-    private RoiManager rm;
 
-    @BeforeAll
-    static void startImageJ() {
-        ImageJHarness.start();
-    }
-
-    @BeforeEach
-    void fresh() {
-        rm = ImageJHarness.freshRoiManager();
-    }
-
-    @AfterEach
-    void close() {
-        ImageJHarness.closeAllBut(rm);
-    }
-
-    private static JsonObject cli(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        assertEquals(0, NoisewiseCli.execute(args, new PrintWriter(out), new PrintWriter(err)), err.toString());
-        return JsonParser.parseString(out.toString()).getAsJsonObject();
-    }
 
     @Test
     void backgroundMethodWithAutomaticAir() throws Exception {

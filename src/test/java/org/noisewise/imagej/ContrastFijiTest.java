@@ -6,26 +6,18 @@ import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.google.gson.JsonObject;
-import com.google.gson.JsonParser;
 import ij.IJ;
 import ij.ImagePlus;
 import ij.gui.Overlay;
 import ij.gui.Roi;
 import ij.gui.TextRoi;
 import ij.measure.ResultsTable;
-import ij.plugin.frame.RoiManager;
 import java.awt.Color;
-import java.io.PrintWriter;
-import java.io.StringWriter;
-import org.junit.jupiter.api.AfterEach;
-import org.junit.jupiter.api.BeforeAll;
-import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
-import org.noisewise.cli.NoisewiseCli;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.sample.SampleCatalog;
 import org.noisewise.sample.TissueSample;
-import org.noisewise.testing.ImageJHarness;
+import org.noisewise.testing.FijiSession;
 import org.noisewise.testing.TestImages;
 
 /**
@@ -35,24 +27,8 @@ import org.noisewise.testing.TestImages;
  * own colour with a key, and the user's image and regions untouched. Bundled two-tissue sample (true
  * CNR 8, generated).
  */
-class ContrastFijiTest {
+class ContrastFijiTest extends FijiSession {
 
-    private RoiManager rm;
-
-    @BeforeAll
-    static void startImageJ() {
-        ImageJHarness.start();
-    }
-
-    @BeforeEach
-    void fresh() {
-        rm = ImageJHarness.freshRoiManager();
-    }
-
-    @AfterEach
-    void close() {
-        ImageJHarness.closeAllBut(rm);
-    }
 
     private void add(SampleCatalog.Rect r, String name) {
         Roi roi = new Roi(r.x(), r.y(), r.w(), r.h());
@@ -65,14 +41,6 @@ class ContrastFijiTest {
         imp.show();
         add(TissueSample.SIGNAL, "signal");
         return imp;
-    }
-
-    private static JsonObject cli(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int status = NoisewiseCli.execute(args, new PrintWriter(out), new PrintWriter(err));
-        assertEquals(0, status, err.toString());
-        return JsonParser.parseString(out.toString()).getAsJsonObject();
     }
 
     private static void assertSame(ResultsTable rt, JsonObject o) {

@@ -6,25 +6,17 @@ import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.google.gson.JsonObject;
-import com.google.gson.JsonParser;
 import ij.IJ;
 import ij.ImagePlus;
 import ij.WindowManager;
 import ij.gui.Roi;
 import ij.measure.ResultsTable;
-import ij.plugin.frame.RoiManager;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Path;
-import org.junit.jupiter.api.AfterEach;
-import org.junit.jupiter.api.BeforeAll;
-import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
-import org.noisewise.cli.NoisewiseCli;
 import org.noisewise.io.ImageFiles;
 import org.noisewise.sample.NoiseScanSample;
 import org.noisewise.testing.Display;
-import org.noisewise.testing.ImageJHarness;
+import org.noisewise.testing.FijiSession;
 import org.noisewise.testing.TestImages;
 
 /**
@@ -32,31 +24,9 @@ import org.noisewise.testing.TestImages;
  * noise-only scan (generated; truth in {@link NoiseScanSample}): the same figures as the command line,
  * the sigma map shown, both images and the ROI Manager untouched.
  */
-class NoiseScanFijiTest {
+class NoiseScanFijiTest extends FijiSession {
 
-    private RoiManager rm;
 
-    @BeforeAll
-    static void startImageJ() {
-        ImageJHarness.start();
-    }
-
-    @BeforeEach
-    void fresh() {
-        rm = ImageJHarness.freshRoiManager();
-    }
-
-    @AfterEach
-    void close() {
-        ImageJHarness.closeAllBut(rm);
-    }
-
-    private static JsonObject cli(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        assertEquals(0, NoisewiseCli.execute(args, new PrintWriter(out), new PrintWriter(err)), err.toString());
-        return JsonParser.parseString(out.toString()).getAsJsonObject();
-    }
 
     private ImagePlus[] openPair() throws Exception {
         ImagePlus scan = ImageFiles.open(Path.of("sample-images", NoiseScanSample.NOISE));

@@ -12,7 +12,6 @@ import ij.gui.Overlay;
 import ij.gui.Roi;
 import ij.gui.TextRoi;
 import ij.measure.ResultsTable;
-import ij.plugin.frame.RoiManager;
 import ij.process.FloatProcessor;
 import ij.process.ShortProcessor;
 import java.awt.Color;
@@ -21,39 +20,19 @@ import java.nio.file.Path;
 import java.util.HashSet;
 import java.util.Set;
 import java.util.SplittableRandom;
-import org.junit.jupiter.api.AfterEach;
-import org.junit.jupiter.api.BeforeAll;
-import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.noisewise.io.QaImages;
 import org.noisewise.sample.Phantoms;
-import org.noisewise.testing.ImageJHarness;
-import org.noisewise.testing.TestImages;
+import org.noisewise.testing.FijiSession;
 import picocli.CommandLine;
 
 /** Issue 20 in Fiji: the findings run through the menu commands as a macro runs them, asserting on what the user sees. */
-class UserPathFindingsFijiTest {
+class UserPathFindingsFijiTest extends FijiSession {
 
     @TempDir
     Path dir;
 
-    private RoiManager rm;
-
-    @BeforeAll
-    static void startImageJ() {
-        ImageJHarness.start();
-    }
-
-    @BeforeEach
-    void fresh() {
-        rm = ImageJHarness.freshRoiManager();
-    }
-
-    @AfterEach
-    void close() {
-        ImageJHarness.closeAllBut(rm);
-    }
 
     private void add(Roi r, String name) {
         r.setName(name);

@@ -106,13 +106,7 @@ public class QaCommand implements Callable<Integer> {
             throw new InputException("qa places its own background regions beside the phantom: --background takes only "
                     + "auto here (all the air), was '" + background + "'");
         }
-        if (airMask != null) {
-            if (!autoAir) {
-                throw new InputException("--air-mask writes the air that --background auto finds: add --background "
-                        + "auto, or leave --air-mask out");
-            }
-            org.noisewise.io.ImageWriter.checkWritable(airMask, force, images.toArray(new Path[0]));
-        }
+        AirMask.check(airMask, autoAir, force, images.toArray(new Path[0]));
         Progress progress = progressOption.sink(spec.commandLine().getErr(), "qa");
         progress.report(0.0, "reading " + images.get(0).getFileName());
         ImagePlus first = ImageFiles.open(images.get(0), echoOption.get());
@@ -130,13 +124,8 @@ public class QaCommand implements Callable<Integer> {
         QaMeasure.Outcome out = QaMeasure.run(first, second, null, o, images.get(0),
                 progress);
         if (airMask != null && out.result().air() != null) {
-            boolean[] m = out.result().air().mask();
-            byte[] b = new byte[m.length];
-            for (int i = 0; i < m.length; i++) {
-                b[i] = m[i] ? (byte) 255 : 0;
-            }
-            org.noisewise.io.ImageWriter.saveTiff(new ImagePlus(first.getTitle() + " air mask",
-                    new ij.process.ByteProcessor(first.getWidth(), first.getHeight(), b)), airMask, force,
+            AirMask.write(new ImagePlus(first.getTitle() + " air mask", org.noisewise.io.QaImages.maskProcessor(
+                    out.result().air().mask(), first.getWidth(), first.getHeight())), airMask, force,
                     images.toArray(new Path[0]));
         }
         Output.notes(spec.commandLine().getErr(), "qa", out.notes());

@@ -136,9 +136,7 @@ final class Face {
     static List<Roi> airRegions(org.noisewise.measure.Measurement m, ImagePlus imp) {
         for (ImagePlus mask : m.images()) {
             if (mask.getTitle().endsWith(" air mask")) {
-                ij.process.ImageProcessor ip = mask.getStack().getProcessor(1).duplicate();
-                ip.setThreshold(255, 255, ij.process.ImageProcessor.NO_LUT_UPDATE);
-                Roi r = ij.plugin.filter.ThresholdToSelection.run(new ImagePlus("air", ip));
+                Roi r = QaImages.outline(mask.getStack().getProcessor(1));
                 if (r != null) {
                     r.setName("air (automatic)");
                     return List.of(r);

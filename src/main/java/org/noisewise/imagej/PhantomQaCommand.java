@@ -175,12 +175,7 @@ public class PhantomQaCommand implements PlugIn {
             rois.add(QaImages.roi(p));
         }
         if (air != null) {
-            ij.process.ByteProcessor mask = new ij.process.ByteProcessor(imp.getWidth(), imp.getHeight());
-            for (int i = 0; i < air.length; i++) {
-                mask.set(i, air[i] ? 255 : 0);
-            }
-            mask.setThreshold(255, 255, ij.process.ImageProcessor.NO_LUT_UPDATE);
-            Roi outline = ij.plugin.filter.ThresholdToSelection.run(new ImagePlus("air", mask));
+            Roi outline = QaImages.outline(QaImages.maskProcessor(air, imp.getWidth(), imp.getHeight()));
             if (outline != null) {
                 outline.setName("air (automatic)");
                 outline.setStrokeColor(QaImages.KEY.get(2).colour());

@@ -53,6 +53,22 @@ public final class QaImages {
         return r;
     }
 
+    /** A mask as an 8-bit image: 255 where {@code mask} is true, 0 elsewhere. */
+    public static ij.process.ByteProcessor maskProcessor(boolean[] mask, int width, int height) {
+        byte[] b = new byte[mask.length];
+        for (int i = 0; i < mask.length; i++) {
+            b[i] = mask[i] ? (byte) 255 : 0;
+        }
+        return new ij.process.ByteProcessor(width, height, b);
+    }
+
+    /** The outline of the 255-valued pixels of an 8-bit mask as one selection, or null when there are none. */
+    public static Roi outline(ImageProcessor mask) {
+        ImageProcessor ip = mask.duplicate();
+        ip.setThreshold(255, 255, ImageProcessor.NO_LUT_UPDATE);
+        return ij.plugin.filter.ThresholdToSelection.run(new ImagePlus("mask", ip));
+    }
+
     /** The key colour of a region by its name. */
     public static Color colour(String name) {
         if (name.startsWith("signal")) {
@@ -188,14 +204,9 @@ public final class QaImages {
             ov.add(label);
         }
         if (air != null) {
-            ImageProcessor mask = new ij.process.ByteProcessor(width, height);
-            for (int i = 0; i < air.length; i++) {
-                mask.set(i, air[i] ? 255 : 0);
-            }
+            ImageProcessor mask = maskProcessor(air, width, height);
             mask.setInterpolationMethod(ImageProcessor.NONE);
-            ImageProcessor scaled = scale == 1.0 ? mask : mask.resize(sw, sh);
-            scaled.setThreshold(255, 255, ImageProcessor.NO_LUT_UPDATE);
-            Roi outline = ij.plugin.filter.ThresholdToSelection.run(new ImagePlus("air", scaled));
+            Roi outline = outline(scale == 1.0 ? mask : mask.resize(sw, sh));
             if (outline != null) {
                 outline.setStrokeColor(KEY.get(2).colour());
                 outline.setStrokeWidth(1.0);

@@ -2,7 +2,6 @@ package org.noisewise.measure;
 
 import ij.ImagePlus;
 import ij.ImageStack;
-import ij.process.ByteProcessor;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -131,10 +130,7 @@ final class Air {
         }
         ImageStack st = new ImageStack(width, height);
         for (int k = 0; k < masks.size(); k++) {
-            boolean[] m = masks.get(k);
-            byte[] b = new byte[m.length];
-            IntStream.range(0, m.length).filter(i -> m[i]).forEach(i -> b[i] = (byte) 255);
-            st.addSlice("slice " + slices.get(k), new ByteProcessor(width, height, b));
+            st.addSlice("slice " + slices.get(k), org.noisewise.io.QaImages.maskProcessor(masks.get(k), width, height));
         }
         return new ImagePlus(title + " air mask", st);
     }

@@ -1,6 +1,8 @@
 package org.noisewise.cli;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.noisewise.cli.CliRunner.holds;
+import static org.noisewise.cli.CliRunner.json;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -30,15 +32,6 @@ class AutomaticAirCliTest {
 
     private static final String HEAD = "sample-images/" + HeadSample.FILE;
     private static final String SIGNAL = HeadSample.SIGNAL.toString();
-
-    private static JsonObject json(CliRunner.Result r) {
-        assertEquals(0, r.status(), r.err());
-        return JsonParser.parseString(r.out()).getAsJsonObject();
-    }
-
-    private static boolean holds(JsonArray ci, double truth) {
-        return ci.get(0).getAsDouble() <= truth && truth <= ci.get(1).getAsDouble();
-    }
 
     @Test
     void headSampleWithGhostsAndZeroBands() {

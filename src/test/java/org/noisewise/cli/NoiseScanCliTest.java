@@ -2,13 +2,14 @@ package org.noisewise.cli;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.noisewise.cli.CliRunner.holds;
+import static org.noisewise.cli.CliRunner.json;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.google.gson.JsonArray;
 import com.google.gson.JsonElement;
 import com.google.gson.JsonObject;
-import com.google.gson.JsonParser;
 import ij.IJ;
 import ij.ImagePlus;
 import ij.process.FloatProcessor;
@@ -36,15 +37,6 @@ class NoiseScanCliTest {
     private static final String CENTRE = NoiseScanSample.CENTRE.toString();
     private static final String[] CORNERS = {"--background", "2,2,20,20", "--background", "106,2,20,20",
             "--background", "2,106,20,20", "--background", "106,106,20,20"};
-
-    private static JsonObject json(CliRunner.Result r) {
-        assertEquals(0, r.status(), r.err());
-        return JsonParser.parseString(r.out()).getAsJsonObject();
-    }
-
-    private static boolean holds(JsonArray ci, double truth) {
-        return ci.get(0).getAsDouble() <= truth && truth <= ci.get(1).getAsDouble();
-    }
 
     private static String[] args(String... a) {
         return a;

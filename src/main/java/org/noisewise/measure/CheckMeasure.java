@@ -65,6 +65,8 @@ public final class CheckMeasure {
         String unit = ImagePlanes.valueUnit(imp);
         List<ResultRow> rows = new ArrayList<>();
         List<Plot> plots = new ArrayList<>();
+        NoiseScanMeasure.ScanPlanes scanPlanes = scan == null ? null
+                : new NoiseScanMeasure.ScanPlanes(scan, scanTitle, o.channels(), signal);
         for (int k = 0; k < planes.length; k++) {
             int n = planes[k];
             progress.report((double) k / planes.length, "Background check: slice " + n);
@@ -85,8 +87,9 @@ public final class CheckMeasure {
             NoiseScanMeasure.CheckPart part = null;
             if (scan != null) {
                 int sp = NoiseScanMeasure.scanPlane(imp, title, scan, scanTitle, n);
-                float[] np = ImagePlanes.calibratedPixels(scan, sp);
-                NoiseScan.Check c = NoiseScanMeasure.check(scan, scanTitle, sp, o.channels(), signal, np);
+                NoiseScanMeasure.ScanPlane plane = scanPlanes.get(sp);
+                float[] np = plane.pixels();
+                NoiseScan.Check c = plane.check();
                 notes.add(NoiseScanMeasure.scanNote(n, scanTitle, sp, c));
                 part = NoiseScanMeasure.checkPart(px, np, imp.getWidth(), background, signal, c,
                         BackgroundValues.storage(imp, n).step());

@@ -75,6 +75,39 @@ public final class NoiseScanMeasure {
         return n;
     }
 
+    /** A scan plane's calibrated values and their check. */
+    record ScanPlane(float[] pixels, NoiseScan.Check check) {
+    }
+
+    /**
+     * The scan's planes, each read and checked once however many image planes use it (a one-slice scan
+     * serves every slice).
+     */
+    static final class ScanPlanes {
+        private final ImagePlus scan;
+        private final String title;
+        private final Integer channels;
+        private final Region serve;
+        private final Map<Integer, ScanPlane> done = new java.util.HashMap<>();
+
+        ScanPlanes(ImagePlus scan, String title, Integer channels, Region serve) {
+            this.scan = scan;
+            this.title = title;
+            this.channels = channels;
+            this.serve = serve;
+        }
+
+        ScanPlane get(int plane) throws InputException {
+            ScanPlane p = done.get(plane);
+            if (p == null) {
+                float[] np = ImagePlanes.calibratedPixels(scan, plane);
+                p = new ScanPlane(np, check(scan, title, plane, channels, serve, np));
+                done.put(plane, p);
+            }
+            return p;
+        }
+    }
+
     /** The checked scan plane, with the plane named in any refusal. */
     static NoiseScan.Check check(ImagePlus scan, String scanTitle, int plane, Integer channels, Region serve,
                                  float[] np) throws InputException {
@@ -104,15 +137,17 @@ public final class NoiseScanMeasure {
         int h = imp.getHeight();
         List<ResultRow> rows = new ArrayList<>();
         ImageStack maps = o.map() ? new ImageStack(w, h) : null;
+        ScanPlanes scanPlanes = new ScanPlanes(scan, scanTitle, o.channels(), serve);
         for (int k = 0; k < planes.length; k++) {
             int n = planes[k];
             progress.report((double) k / planes.length, "SNR (noise-only scan): slice " + n);
             int sp = scanPlane(imp, title, scan, scanTitle, n);
             float[] px = ImagePlanes.calibratedPixels(imp, n);
-            float[] np = ImagePlanes.calibratedPixels(scan, sp);
             SignedValues.requireMagnitude(signal.values(px), "signal region '" + signal.name() + "'",
                     "the noise-only scan method");
-            NoiseScan.Check c = check(scan, scanTitle, sp, o.channels(), serve, np);
+            ScanPlane plane = scanPlanes.get(sp);
+            float[] np = plane.pixels();
+            NoiseScan.Check c = plane.check();
             notes.add(scanNote(n, scanTitle, sp, c));
             SigmaEstimate sigma = NoiseScan.sigma(np, signal, c);
             List<Warning> warnings = new ArrayList<>();

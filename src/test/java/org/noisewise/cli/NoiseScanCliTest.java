@@ -9,6 +9,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.google.gson.JsonArray;
 import com.google.gson.JsonElement;
+import com.google.gson.JsonParser;
 import com.google.gson.JsonObject;
 import ij.IJ;
 import ij.ImagePlus;
@@ -166,5 +167,27 @@ class NoiseScanCliTest {
         assertEquals("valid", own.get("verdict").getAsString());
         assertFalse(own.get("warnings").toString().contains("noise_scan_scale"), own.get("warnings").toString());
         assertEquals(1.0, own.get("noise_scale").getAsDouble(), 0.03);
+    }
+
+    /** A one-slice scan serves every slice of a stack: each slice's sigma comes from the same scan pixels. */
+    @Test
+    void oneScanServesEverySliceOfAStack() throws IOException {
+        ImagePlus one = IJ.openImage(IMAGE);
+        ij.ImageStack st = new ij.ImageStack(one.getWidth(), one.getHeight());
+        for (int k = 0; k < 3; k++) {
+            st.addSlice(one.getProcessor().duplicate());
+        }
+        Path stack = TestImages.saveTiff(new ImagePlus("three", st), dir, "three.tif");
+        CliRunner.Result r = CliRunner.run("background", stack.toString(), "--noise-scan", NOISE, "--signal", CENTRE,
+                "--json");
+        assertEquals(0, r.status(), r.err());
+        com.google.gson.JsonArray rows = JsonParser.parseString(r.out()).getAsJsonArray();
+        assertEquals(3, rows.size());
+        double sigma = rows.get(0).getAsJsonObject().get("sigma").getAsDouble();
+        for (JsonElement e : rows) {
+            assertEquals(sigma, e.getAsJsonObject().get("sigma").getAsDouble(), 0.0);
+            assertEquals(1, e.getAsJsonObject().get("noise_scan_slice").getAsInt());
+        }
+        assertTrue(r.err().contains("slice 3: noise-only scan"), r.err());
     }
 }

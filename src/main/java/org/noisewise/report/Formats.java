@@ -113,8 +113,7 @@ public final class Formats {
             if (!Double.isFinite(d)) {
                 return "";
             }
-            return String.format(Locale.ROOT, "%.6g", d).replaceFirst("(\\.\\d*?)0+(e|$)", "$1$2")
-                    .replaceFirst("\\.(e|$)", "$1");
+            return sig(d, 6);
         }
         if (v instanceof List<?> list) {
             return list.stream().map(o -> o instanceof Warning w ? w.message() : String.valueOf(o))
@@ -153,16 +152,24 @@ public final class Formats {
             return sb.toString();
         }
         List<String> heads = rows.get(0).headings();
+        List<List<String>> lines = new java.util.ArrayList<>(rows.size());
+        for (ResultRow r : rows) {
+            List<String> line = new java.util.ArrayList<>(heads.size());
+            for (ResultRow.Cell c : r.tableCells()) {
+                line.add(shown(r, c));
+            }
+            lines.add(line);
+        }
         int[] widths = new int[heads.size()];
         for (int i = 0; i < heads.size(); i++) {
             widths[i] = heads.get(i).length();
-            for (ResultRow r : rows) {
-                widths[i] = Math.max(widths[i], shown(r, r.tableCells().get(i)).length());
+            for (List<String> line : lines) {
+                widths[i] = Math.max(widths[i], line.get(i).length());
             }
         }
         appendLine(sb, heads, widths);
-        for (ResultRow r : rows) {
-            appendLine(sb, r.tableCells().stream().map(c -> shown(r, c)).toList(), widths);
+        for (List<String> line : lines) {
+            appendLine(sb, line, widths);
         }
         return sb.toString();
     }
@@ -177,7 +184,11 @@ public final class Formats {
             if (i > 0) {
                 sb.append("  ");
             }
-            sb.append(String.format(Locale.ROOT, "%-" + widths[i] + "s", values.get(i)));
+            String v = values.get(i);
+            sb.append(v);
+            for (int pad = v.length(); pad < widths[i]; pad++) {
+                sb.append(' ');
+            }
         }
         sb.append(System.lineSeparator());
     }
@@ -205,7 +216,7 @@ public final class Formats {
         if (!Double.isFinite(v)) {
             return "";
         }
-        String base = key.replaceFirst("_ci95\\[[01]]$", "");
+        String base = intervalBase(key);
         Object lo = row.get(base + "_ci95[0]");
         Object hi = row.get(base + "_ci95[1]");
         if (lo instanceof Double l && hi instanceof Double h && Double.isFinite(l) && Double.isFinite(h) && h > l) {
@@ -216,12 +227,17 @@ public final class Formats {
         return sig(v, 4);
     }
 
+    /** The key of the value an interval bound belongs to ({@code x} for {@code x_ci95[0]}), else the key itself. */
+    private static String intervalBase(String key) {
+        return key.endsWith("_ci95[0]") || key.endsWith("_ci95[1]") ? key.substring(0, key.length() - 8) : key;
+    }
+
     /** The decimals {@link #meaningful} shows for a value (at most 12). */
     public static int decimals(ResultRow row, String key, double v) {
         if (!Double.isFinite(v)) {
             return 0;
         }
-        String base = key.replaceFirst("_ci95\\[[01]]$", "");
+        String base = intervalBase(key);
         Object lo = row.get(base + "_ci95[0]");
         Object hi = row.get(base + "_ci95[1]");
         if (lo instanceof Double l && hi instanceof Double h && Double.isFinite(l) && Double.isFinite(h) && h > l) {
@@ -235,8 +251,25 @@ public final class Formats {
         if (!Double.isFinite(v)) {
             return "";
         }
-        return String.format(Locale.ROOT, "%." + digits + "g", v).replaceFirst("(\\.\\d*?)0+(e|$)", "$1$2")
-                .replaceFirst("\\.(e|$)", "$1");
+        return trimZeros(String.format(Locale.ROOT, "%." + digits + "g", v));
+    }
+
+    /** Drops the trailing zeros of a decimal fraction (and a bare point), before any exponent: 1.2300e+05 -> 1.23e+05. */
+    static String trimZeros(String s) {
+        int point = s.indexOf('.');
+        if (point < 0) {
+            return s;
+        }
+        int exp = s.indexOf('e', point);
+        int end = exp < 0 ? s.length() : exp;
+        int cut = end;
+        while (cut > point + 1 && s.charAt(cut - 1) == '0') {
+            cut--;
+        }
+        if (cut == point + 1) {
+            cut = point;
+        }
+        return cut == end ? s : s.substring(0, cut) + s.substring(end);
     }
 
     /** A value as CSV text: numbers at full precision, blanks for missing values. */

@@ -44,4 +44,32 @@ class FormatsTest {
         assertTrue(lines[0].startsWith("Alpha  B"), t);
         assertTrue(lines[2].startsWith("22.5   yy"), t);
     }
+
+    @Test
+    void trailingZerosGoBeforeTheExponentOnly() {
+        assertEquals("1.23e+05", Formats.trimZeros("1.23000e+05"));
+        assertEquals("1e-05", Formats.trimZeros("1.00000e-05"));
+        assertEquals("100", Formats.trimZeros("100.000"));
+        assertEquals("-2.5", Formats.trimZeros("-2.50000"));
+        assertEquals("0.0001", Formats.trimZeros("0.000100000"));
+        assertEquals("120", Formats.trimZeros("120"));
+        assertEquals("1e+10", Formats.trimZeros("1e+10"));
+        assertEquals("10.01", Formats.sig(10.01, 4));
+        assertEquals("1.235e+06", Formats.sig(1234567.0, 4));
+        assertEquals("0", Formats.text(0.0));
+    }
+
+    @Test
+    void tableColumnsAreAsWideAsTheirWidestCellAndIntervalsSetTheDecimals() {
+        ResultRow r1 = new ResultRow().add("snr", "SNR", 100.4912).add("snr_ci95[0]", "low", 99.9987)
+                .add("snr_ci95[1]", "high", 100.9876).add("image", "Image", "a");
+        ResultRow r2 = new ResultRow().add("snr", "SNR", 7.24).add("snr_ci95[0]", "low", 6.0)
+                .add("snr_ci95[1]", "high", 8.5).add("image", "Image", "long name");
+        String[] lines = Formats.alignedText(List.of(r1, r2)).split("\\R");
+        // half-widths 0.49 and 1.25: two significant digits of them give 2 and 1 decimals
+        assertEquals("SNR     low     high    Image", lines[0].stripTrailing());
+        assertEquals("100.49  100.00  100.99  a", lines[1].stripTrailing());
+        assertEquals("7.2     6.0     8.5     long name", lines[2].stripTrailing());
+        assertEquals(lines[0].length(), lines[2].length(), "every line padded to the same columns");
+    }
 }

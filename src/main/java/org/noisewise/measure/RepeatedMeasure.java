@@ -43,18 +43,15 @@ public final class RepeatedMeasure {
         Region contrast = roles.oneContrast();
         String unit = ImagePlanes.valueUnit(imp);
         int zCount = StackPlanes.zCount(imp);
-        List<ImagePlus> images = new ArrayList<>();
-        List<ResultRow> rows = new ArrayList<>();
-        for (int i = 0; i < zs.length; i++) {
-            int z = zs[i];
-            Progress part = progress.part((double) i / zs.length, (i + 1.0) / zs.length);
+        // the map images are made afterwards, in slice order: ImageJ numbers new images from one counter
+        record Slice(int z, RepeatedAcquisitions.Maps maps, List<ResultRow> rows) {
+        }
+        List<Slice> slices = PerSlice.run(imp, zs, progress, "Repeated acquisitions", (i, z, part) -> {
             RepeatedAcquisitions.Maps m = RepeatedMaps.compute(imp, z,
                     f -> part.report(f, "Repeated acquisitions: z " + z + " of " + zCount));
-            if (maps) {
-                images.add(ResultImages.mapStack(title + " repeat maps" + (zCount > 1 ? " z" + z : ""), m, imp, unit));
-            }
             RepeatedAcquisitions.Frames frames = RepeatedMaps.frames(imp, z);
             double step = Planes.step(imp, z);
+            List<ResultRow> sliceRows = new ArrayList<>();
             for (Region reg : roles.signal()) {
                 RepeatedSnrResult r = RepeatedAcquisitions.summarize(m, frames, reg, channels, step);
                 ResultRow row = MethodRows.repeated(title, z, unit, r).add("region", "Region", reg.name());
@@ -62,8 +59,18 @@ public final class RepeatedMeasure {
                     row = CnrRows.with(row, Contrast.repeated(m, frames, reg, contrast, r, channels, step), contrast.name(),
                             unit);
                 }
-                rows.add(row);
+                sliceRows.add(row);
             }
+            return new Slice(z, maps ? m : null, sliceRows);
+        });
+        List<ImagePlus> images = new ArrayList<>();
+        List<ResultRow> rows = new ArrayList<>();
+        for (Slice s : slices) {
+            if (s.maps() != null) {
+                images.add(ResultImages.mapStack(title + " repeat maps" + (zCount > 1 ? " z" + s.z() : ""), s.maps(), imp,
+                        unit));
+            }
+            rows.addAll(s.rows());
         }
         progress.report(1.0, "");
         List<String> notes = Measurement.imageNotes(imp);

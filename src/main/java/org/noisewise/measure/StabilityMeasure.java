@@ -119,15 +119,10 @@ public final class StabilityMeasure {
         int h = imp.getHeight();
         int zCount = StackPlanes.zCount(imp);
         int[] zs = o.zs();
-        List<ResultRow> rows = new ArrayList<>();
-        List<ImagePlus> images = new ArrayList<>();
-        List<Plot> plots = new ArrayList<>();
-        List<StabilityResult> results = new ArrayList<>();
-        List<Stability.Placement> places = new ArrayList<>();
-        List<StabilityMaps> allMaps = new ArrayList<>();
-        for (int i = 0; i < zs.length; i++) {
-            int z = zs[i];
-            Progress part = progress.part((double) i / zs.length, (i + 1.0) / zs.length);
+        // each slice's figures on Noisewise's workers; the images, plots and notes afterwards, in slice order
+        record Slice(StabilityMaps maps, Stability.Placement place, StabilityResult result, List<String> notes) {
+        }
+        List<Slice> slices = PerSlice.run(imp, zs, progress, "Stability", (i, z, part) -> {
             String where = zCount > 1 ? " z " + z + " of " + zCount : "";
             SeriesFrames f = SeriesFrames.of(imp, z);
             requireFinite(f, w, zCount > 1 ? z : 0);
@@ -141,17 +136,32 @@ public final class StabilityMeasure {
                         + "difference), and the stability figures are defined on magnitude images; measure the magnitude "
                         + "series", 100.0 * negativeMeans / maps.signal().length, where));
             }
-            Stability.Placement place = placement(maps, signal, o.roiSize(), w, h, notes, zCount > 1 ? z : 0);
+            List<String> sliceNotes = new ArrayList<>();
+            Stability.Placement place = placement(maps, signal, o.roiSize(), w, h, sliceNotes, zCount > 1 ? z : 0);
             StabilityResult r = Stability.summarize(maps, f::gather, place, tr);
+            return new Slice(maps, place, r, sliceNotes);
+        });
+        List<ResultRow> rows = new ArrayList<>();
+        List<ImagePlus> images = new ArrayList<>();
+        List<Plot> plots = new ArrayList<>();
+        List<StabilityResult> results = new ArrayList<>();
+        List<Stability.Placement> places = new ArrayList<>();
+        List<StabilityMaps> allMaps = new ArrayList<>();
+        for (int i = 0; i < zs.length; i++) {
+            int z = zs[i];
+            Slice sl = slices.get(i);
+            StabilityResult r = sl.result();
+            Stability.Placement place = sl.place();
+            notes.addAll(sl.notes());
             results.add(r);
             places.add(place);
-            allMaps.add(maps);
+            allMaps.add(sl.maps());
             rows.add(StabilityRows.row(title, z, unit, place.region().name(), r)
                     .add("square.x", null, place.x0()).add("square.y", null, place.y0())
                     .add("square.side", null, place.side()));
             String suffix = zCount > 1 ? " z" + z : "";
             if (o.maps()) {
-                images.add(ResultImages.stabilityStack(title + " stability maps" + suffix, maps, imp, unit));
+                images.add(ResultImages.stabilityStack(title + " stability maps" + suffix, sl.maps(), imp, unit));
             }
             plots.add(StabilityPlots.series("Stability series - " + title + suffix, r, unit));
             plots.add(StabilityPlots.spectrum("Stability spectrum - " + title + suffix, r, unit));

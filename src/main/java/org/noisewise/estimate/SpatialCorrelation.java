@@ -181,6 +181,9 @@ public final class SpatialCorrelation {
         private final long[] pairs;
         private double squares;
         private long count;
+        /** The last patch whose every-pixel pair counts were computed, and those counts per lag. */
+        private Patch counted;
+        private long[] countedPairs;
 
         public LagSums(int halfWidth) {
             this.k = halfWidth;
@@ -214,7 +217,7 @@ public final class SpatialCorrelation {
             boolean[] in = p.in();
             int stride = p.n() > MAX_ANCHORS ? (int) Math.ceil((double) p.n() / MAX_ANCHORS) : 1;
             if (stride == 1) {
-                addEvery(w, h, in, q, mean);
+                addEvery(p, q, mean);
                 return;
             }
             int seen = 0;
@@ -245,21 +248,27 @@ public final class SpatialCorrelation {
 
         /**
          * Every pixel of the patch as an anchor, lag by lag over whole rows: the same sums as the
-         * pixel-by-pixel loop, in simple loops without branches (deviations are 0 outside the region,
-         * and the pair count is the product of the membership masks).
+         * pixel-by-pixel loop, in simple loops without branches (deviations are 0 outside the region).
+         * The pair counts depend on the patch alone: they are counted once (the product of the
+         * membership masks) and reused while the same patch is added again, e.g. frame after frame.
          */
-        private void addEvery(int w, int h, boolean[] in, double[] q, double mean) {
+        private void addEvery(Patch p, double[] q, double mean) {
+            int w = p.w();
+            int h = p.h();
+            boolean[] in = p.in();
             int n = w * h;
             double[] d = new double[n];
-            int[] m = new int[n];
             for (int a = 0; a < n; a++) {
                 if (in[a]) {
                     double da = q[a] - mean;
                     d[a] = da;
-                    m[a] = 1;
                     squares += da * da;
                     count++;
                 }
+            }
+            if (counted != p) {
+                countedPairs = pairCounts(p);
+                counted = p;
             }
             for (int l = 0; l < lagX.length; l++) {
                 int hx = lagX[l];
@@ -267,18 +276,44 @@ public final class SpatialCorrelation {
                 int xs = Math.max(0, -hx);
                 int xe = Math.min(w, w - hx);
                 double prod = 0;
-                long cnt = 0;
                 for (int y = 0; y + hy < h; y++) {
                     int rowA = y * w;
                     int rowB = (y + hy) * w + hx;
                     for (int x = xs; x < xe; x++) {
                         prod += d[rowA + x] * d[rowB + x];
-                        cnt += m[rowA + x] & m[rowB + x];
                     }
                 }
                 products[l] += prod;
-                pairs[l] += cnt;
+                pairs[l] += countedPairs[l];
             }
+        }
+
+        /** The pairs of region pixels at each lag within a patch. */
+        private long[] pairCounts(Patch p) {
+            int w = p.w();
+            int h = p.h();
+            boolean[] in = p.in();
+            int[] m = new int[w * h];
+            for (int a = 0; a < m.length; a++) {
+                m[a] = in[a] ? 1 : 0;
+            }
+            long[] out = new long[lagX.length];
+            for (int l = 0; l < lagX.length; l++) {
+                int hx = lagX[l];
+                int hy = lagY[l];
+                int xs = Math.max(0, -hx);
+                int xe = Math.min(w, w - hx);
+                long cnt = 0;
+                for (int y = 0; y + hy < h; y++) {
+                    int rowA = y * w;
+                    int rowB = (y + hy) * w + hx;
+                    for (int x = xs; x < xe; x++) {
+                        cnt += m[rowA + x] & m[rowB + x];
+                    }
+                }
+                out[l] = cnt;
+            }
+            return out;
         }
 
         /** Adds the same patch's pairs for values given as a plane. */

@@ -27,6 +27,12 @@ public final class SeriesNoise {
 
     /** Simulated series per candidate drift. */
     static final int DRAWS = 600;
+    /**
+     * Relative width at which a bisection stops: far below what the figures it feeds can resolve (the
+     * drift's simulated quantiles scatter by about 1/sqrt(DRAWS), an AR(1) coefficient is known to about
+     * 1/sqrt(n)), and below the digits any output shows.
+     */
+    static final double BISECTION_TOLERANCE = 1e-10;
 
     private SeriesNoise() {
     }
@@ -43,9 +49,6 @@ public final class SeriesNoise {
         }
         return den > 0 ? num / den : 0.0;
     }
-
-
-
 
 
     /** The drift of a fitted trend {@code a1 p1 + a2 p2} over the frames, in percent of {@code mean}. */
@@ -117,7 +120,7 @@ public final class SeriesNoise {
             // the smallest true drift whose 97.5% point reaches the observed one
             double a = 0;
             double b = 1;
-            for (int i = 0; i < 60; i++) {
+            for (int i = 0; i < 60 && b - a > BISECTION_TOLERANCE * b; i++) {
                 double m = 0.5 * (a + b);
                 if (quantiles.apply(m)[1] >= observed) {
                     b = m;
@@ -134,7 +137,7 @@ public final class SeriesNoise {
         }
         double a = 1;
         double b = top;
-        for (int i = 0; i < 60; i++) {
+        for (int i = 0; i < 60 && b - a > BISECTION_TOLERANCE * a; i++) {
             double m = 0.5 * (a + b);
             if (quantiles.apply(m)[0] <= observed) {
                 a = m;
@@ -174,8 +177,14 @@ public final class SeriesNoise {
             return new Ar1(0, n - 3, n - 3, q.norm1(), q.norm2(), n);
         }
 
-        static Ar1 of(double[] residuals, QuadraticTrend q, double margin) {
-            return ofLag1(autocorrelation(residuals, 1), q, margin);
+        /** As {@link #ofLag1(double, QuadraticTrend, double)} for several margins, the coefficient found once. */
+        static Ar1[] ofLag1(double observed, QuadraticTrend q, double... margins) {
+            Ar1 a = solve(observed, q);
+            Ar1[] out = new Ar1[margins.length];
+            for (int i = 0; i < margins.length; i++) {
+                out[i] = withMargin(a, observed, q, margins[i]);
+            }
+            return out;
         }
 
         /**
@@ -185,7 +194,10 @@ public final class SeriesNoise {
          * itself (a margin of 1.5 to 2 is our choice, checked by the seeded coverage tests).
          */
         static Ar1 ofLag1(double observed, QuadraticTrend q, double margin) {
-            Ar1 a = solve(observed, q);
+            return withMargin(solve(observed, q), observed, q, margin);
+        }
+
+        private static Ar1 withMargin(Ar1 a, double observed, QuadraticTrend q, double margin) {
             int n = q.samples();
             if (observed > 2 / Math.sqrt(n)) {
                 return at(q, Math.min(0.995, a.phi() + margin * Math.sqrt((1 - a.phi() * a.phi()) / n)));
@@ -196,15 +208,16 @@ public final class SeriesNoise {
         private static Ar1 solve(double observed, QuadraticTrend q) {
             double lo = -0.9;
             double hi = 0.995;
-            if (expectedLag1(q, lo) >= observed) {
+            Lag1 lag1 = new Lag1(q);
+            if (lag1.expected(lo) >= observed) {
                 return at(q, lo);
             }
-            if (expectedLag1(q, hi) <= observed) {
+            if (lag1.expected(hi) <= observed) {
                 return at(q, hi);
             }
-            for (int i = 0; i < 50; i++) {
+            for (int i = 0; i < 50 && hi - lo > BISECTION_TOLERANCE; i++) {
                 double m = 0.5 * (lo + hi);
-                if (expectedLag1(q, m) < observed) {
+                if (lag1.expected(m) < observed) {
                     lo = m;
                 } else {
                     hi = m;
@@ -250,37 +263,53 @@ public final class SeriesNoise {
             return s;
         }
 
-        /** {@code tr(P R P L) / tr(P R)}: the lag-1 correlation the fit's residuals show on average. */
-        static double expectedLag1(QuadraticTrend q, double phi) {
-            int n = q.samples();
-            double[][] b = basis(q);
-            double[][] rb = new double[3][];
-            double[][] lb = new double[3][];
-            double[] norm = new double[3];
-            for (int k = 0; k < 3; k++) {
-                rb[k] = times(phi, b[k]);
-                lb[k] = lag(b[k]);
-                norm[k] = dot(b[k], b[k]);
-            }
-            // tr(R) = n, tr(H R) = sum b'Rb / |b|^2
-            double trR = n;
-            double trHR = 0;
-            for (int k = 0; k < 3; k++) {
-                trHR += dot(b[k], rb[k]) / norm[k];
-            }
-            // tr(RL) = (n - 1) phi; tr(HRL) = tr(RLH) = sum b' L R b / |b|^2 = sum (Lb)'(Rb) / |b|^2 (R, L symmetric);
-            // tr(RHL) = sum b' L R b / |b|^2 too; tr(HRHL) = sum_kl (b_k' R b_l)(b_l' L b_k) / (|b_k|^2 |b_l|^2)
-            double trRL = (n - 1) * phi;
-            double trHRL = 0;
-            double trHRHL = 0;
-            for (int k = 0; k < 3; k++) {
-                trHRL += dot(lb[k], rb[k]) / norm[k];
-                for (int l = 0; l < 3; l++) {
-                    trHRHL += dot(b[k], rb[l]) * dot(b[l], lb[k]) / (norm[k] * norm[l]);
+        /**
+         * {@code tr(P R P L) / tr(P R)}, the lag-1 correlation the fit's residuals show on average, as a
+         * function of {@code phi}; what does not depend on {@code phi} (the basis, its lags and norms) is
+         * computed once.
+         */
+        private static final class Lag1 {
+            private final int n;
+            private final double[][] b;
+            private final double[][] lb = new double[3][];
+            private final double[] norm = new double[3];
+
+            Lag1(QuadraticTrend q) {
+                n = q.samples();
+                b = basis(q);
+                for (int k = 0; k < 3; k++) {
+                    lb[k] = lag(b[k]);
+                    norm[k] = dot(b[k], b[k]);
                 }
             }
-            double num = trRL - 2 * trHRL + trHRHL;
-            return num / (trR - trHR);
+
+            /** The expected lag-1 correlation of the residuals for AR(1) coefficient {@code phi}. */
+            double expected(double phi) {
+                double[][] rb = new double[3][];
+                for (int k = 0; k < 3; k++) {
+                    rb[k] = times(phi, b[k]);
+                }
+                // tr(R) = n, tr(H R) = sum b'Rb / |b|^2
+                double trR = n;
+                double trHR = 0;
+                for (int k = 0; k < 3; k++) {
+                    trHR += dot(b[k], rb[k]) / norm[k];
+                }
+                // tr(RL) = (n - 1) phi; tr(HRL) = tr(RLH) = sum b' L R b / |b|^2 = sum (Lb)'(Rb) / |b|^2 (R, L
+                // symmetric); tr(RHL) = sum b' L R b / |b|^2 too; tr(HRHL) = sum_kl (b_k' R b_l)(b_l' L b_k) /
+                // (|b_k|^2 |b_l|^2)
+                double trRL = (n - 1) * phi;
+                double trHRL = 0;
+                double trHRHL = 0;
+                for (int k = 0; k < 3; k++) {
+                    trHRL += dot(lb[k], rb[k]) / norm[k];
+                    for (int l = 0; l < 3; l++) {
+                        trHRHL += dot(b[k], rb[l]) * dot(b[l], lb[k]) / (norm[k] * norm[l]);
+                    }
+                }
+                double num = trRL - 2 * trHRL + trHRHL;
+                return num / (trR - trHR);
+            }
         }
 
         /** {@code L v}, L the symmetric lag-1 matrix (1/2 beside the diagonal), scaled so tr(RL) = (n-1) phi. */

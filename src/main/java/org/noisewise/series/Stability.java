@@ -483,8 +483,10 @@ public final class Stability {
         double[] seriesResiduals = trend.residuals(regionSeries);
         // the residuals' correlation in time; the variance of a variance is more sensitive to it than a mean is,
         // so its model takes the larger margin for the correlation's own uncertainty
-        SeriesNoise.Ar1 arCommon = n > 8 ? SeriesNoise.Ar1.of(seriesResiduals, trend, 2.0) : SeriesNoise.Ar1.white(n);
-        SeriesNoise.Ar1 arTrend = n > 8 ? SeriesNoise.Ar1.of(seriesResiduals, trend, 1.5) : SeriesNoise.Ar1.white(n);
+        SeriesNoise.Ar1[] arSeries = n > 8 ? SeriesNoise.Ar1.ofLag1(SeriesNoise.autocorrelation(seriesResiduals, 1),
+                trend, 2.0, 1.5) : new SeriesNoise.Ar1[] {SeriesNoise.Ar1.white(n), SeriesNoise.Ar1.white(n)};
+        SeriesNoise.Ar1 arCommon = arSeries[0];
+        SeriesNoise.Ar1 arTrend = arSeries[1];
         SeriesNoise.Ar1 arVoxel = n > 8 ? SeriesNoise.Ar1.ofLag1(voxelLag1(resid, n, kept), trend, 2.0)
                 : SeriesNoise.Ar1.white(n);
         double tcc = arCommon.varianceFactor();

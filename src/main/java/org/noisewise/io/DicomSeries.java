@@ -13,7 +13,6 @@ import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.stream.Stream;
 import org.noisewise.diagnose.BackgroundCheck;
 import org.noisewise.estimate.Blocks;
 import org.noisewise.estimate.InputException;
@@ -42,12 +41,7 @@ public final class DicomSeries {
 
     /** The DICOM files directly in {@code folder}, grouped by series, in a deterministic order. */
     public static List<Series> find(Path folder) throws InputException {
-        List<Path> files;
-        try (Stream<Path> s = Files.list(folder)) {
-            files = s.filter(Files::isRegularFile).sorted().toList();
-        } catch (IOException e) {
-            throw new InputException("cannot list folder '" + folder + "': " + e.getMessage());
-        }
+        List<Path> files = entries(folder);
         String[] uids = new String[files.size()];
         boolean[] dicom = new boolean[files.size()];
         Blocks.tasks(files.size(), i -> {
@@ -57,7 +51,7 @@ public final class DicomSeries {
                 d = DicomFile.read(f, false);
             } catch (InputException e) {
                 d = null;
-                dicom[i] = isDicom(f);
+                dicom[i] = Files.isRegularFile(f) && isDicom(f);
             }
             if (d != null) {
                 dicom[i] = true;
@@ -75,6 +69,24 @@ public final class DicomSeries {
         }
         List<Series> out = new ArrayList<>();
         groups.forEach((uid, list) -> out.add(new Series(uid, list)));
+        return out;
+    }
+
+    /**
+     * The entries directly in a folder, by name. Whether each is a file is not asked here (one call
+     * per entry, slow for thousands): an entry that cannot be read as a file is left out where it is
+     * read, when it is not a regular file.
+     */
+    static List<Path> entries(Path folder) throws InputException {
+        String[] names = folder.toFile().list();
+        if (names == null) {
+            throw new InputException("cannot list folder '" + folder + "': check that it exists and can be read");
+        }
+        java.util.Arrays.sort(names);
+        List<Path> out = new ArrayList<>(names.length);
+        for (String n : names) {
+            out.add(folder.resolve(n));
+        }
         return out;
     }
 
@@ -97,12 +109,7 @@ public final class DicomSeries {
      */
     public static ImagePlus openFolder(Path folder, String title, Integer echo, String echoHint)
             throws InputException {
-        List<Path> all;
-        try (Stream<Path> s = Files.list(folder)) {
-            all = s.filter(Files::isRegularFile).sorted().toList();
-        } catch (IOException e) {
-            throw new InputException("cannot list folder '" + folder + "': " + e.getMessage());
-        }
+        List<Path> all = entries(folder);
         if (all.isEmpty()) {
             throw new InputException("folder '" + folder + "' holds no DICOM files: give an image file or a folder of "
                     + "one DICOM series");
@@ -118,8 +125,9 @@ public final class DicomSeries {
                 files[i] = DicomFile.read(all.get(i), true);
                 dicom[i] = files[i] != null || isDicom(all.get(i));
             } catch (InputException e) {
-                failed[i] = e;
-                dicom[i] = true;
+                // a subfolder (or a link to nothing) is not part of the series
+                dicom[i] = Files.isRegularFile(all.get(i));
+                failed[i] = dicom[i] ? e : null;
             }
         });
         for (InputException e : failed) {

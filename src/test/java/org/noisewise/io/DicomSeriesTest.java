@@ -86,6 +86,23 @@ class DicomSeriesTest {
 
     /** Positions written in descending order along the normal: slice 1 is still the lowest position. */
     @Test
+    void subfoldersAndDanglingLinksBesideTheFilesAreLeftOut() throws Exception {
+        // the folder is listed by name only (no per-entry file check): what is not a file is left out
+        // where it is read, and a damaged file is still an error
+        Path f = folder(ScannerSeries.spec("extras", Z, T, SEED, false), "extras");
+        Files.createDirectories(f.resolve("0000_notes"));
+        Files.writeString(f.resolve("0000_notes").resolve("readme.txt"), "not part of the series");
+        Files.createSymbolicLink(f.resolve("zzzz_gone.dcm"), f.resolve("no-such-file.dcm"));
+        assertArranged(ImageFiles.open(f), false);
+        assertEquals(1, DicomSeries.find(f).size());
+        assertEquals(Z * T, DicomSeries.find(f).get(0).files().size());
+        Files.write(f.resolve("zzzz_damaged.dcm"), java.util.Arrays.copyOf(Files.readAllBytes(
+                DicomSeries.find(f).get(0).files().get(0)), 400));
+        InputException e = assertThrows(InputException.class, () -> ImageFiles.open(f));
+        assertTrue(e.getMessage().contains("zzzz_damaged.dcm"), e.getMessage());
+    }
+
+    @Test
     void descendingPositionsAreOrderedAlongTheNormal() throws Exception {
         Path f = folder(ScannerSeries.spec("desc", Z, T, SEED, false).geometry(2, 5, -6).origin(-64, -64, 40), "desc");
         assertArranged(ImageFiles.open(f), true);

@@ -50,17 +50,38 @@ public final class DicomFile {
             0x00200032, 0x00200037, 0x00200100, 0x00200105, 0x00200012, 0x00200013, 0x00180086, 0x00180081,
             0x00280002, 0x00280008, 0x00280010, 0x00280011, 0x00280100, 0x00280103, 0x00281052, 0x00281053,
             0x00280030, 0x00180050, 0x00180088);
+    private static final Set<String> BINARY_VR = Set.of("US", "SS", "UL", "SL", "FD", "FL");
     private static final Set<String> LONG_VR = Set.of("OB", "OD", "OF", "OL", "OV", "OW", "SQ", "SV", "UC", "UN",
             "UR", "UT", "UV");
-    /** The value representations of PS3.5 6.2 by their two letters, so reading one allocates nothing. */
-    private static final Map<Integer, String> VRS = new HashMap<>();
+    /**
+     * The value representations of PS3.5 6.2 by their two capital letters ({@code 26 * first + second}),
+     * with whether each has the long (32-bit) length, so reading one allocates and hashes nothing.
+     */
+    private static final String[] VRS = new String[26 * 26];
+    private static final boolean[] LONG = new boolean[26 * 26];
+    /** {@link #KEPT} and {@link #SEQUENCES} as sorted tags, looked up without boxing. */
+    private static final int[] KEPT_TAGS;
+    private static final int[] SEQUENCE_TAGS;
 
     static {
         for (String vr : new String[] {"AE", "AS", "AT", "CS", "DA", "DS", "DT", "FD", "FL", "IS", "LO", "LT", "OB",
             "OD", "OF", "OL", "OV", "OW", "PN", "SH", "SL", "SQ", "SS", "ST", "SV", "TM", "UC", "UI", "UL", "UN", "UR",
             "US", "UT", "UV"}) {
-            VRS.put((vr.charAt(0) << 8) | vr.charAt(1), vr);
+            int code = 26 * (vr.charAt(0) - 'A') + (vr.charAt(1) - 'A');
+            VRS[code] = vr;
+            LONG[code] = LONG_VR.contains(vr);
         }
+        KEPT_TAGS = sorted(KEPT);
+        SEQUENCE_TAGS = sorted(SEQUENCES);
+    }
+
+    private static int[] sorted(Set<Integer> tags) {
+        int[] out = tags.stream().mapToInt(Integer::intValue).sorted().toArray();
+        return out;
+    }
+
+    private static boolean in(int[] sortedTags, int tag) {
+        return java.util.Arrays.binarySearch(sortedTags, tag) >= 0;
     }
 
     /** Where one frame sits and what its header says of it. */
@@ -132,6 +153,9 @@ public final class DicomFile {
         }
 
         double[] numbers() {
+            if (!BINARY_VR.contains(vr)) {
+                return decimals();
+            }
             ByteBuffer b = ByteBuffer.wrap(bytes).order(bigEndian ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
             switch (vr) {
                 case "US": {
@@ -176,23 +200,27 @@ public final class DicomFile {
                     }
                     return v;
                 }
-                default: {
-                    String t = text();
-                    if (t.isEmpty()) {
-                        return new double[0];
-                    }
-                    String[] p = t.split("\\\\");
-                    double[] v = new double[p.length];
-                    for (int i = 0; i < p.length; i++) {
-                        try {
-                            v[i] = Double.parseDouble(p[i].trim());
-                        } catch (NumberFormatException e) {
-                            v[i] = Double.NaN;
-                        }
-                    }
-                    return v;
+                default:
+                    return decimals();
+            }
+        }
+
+        /** The backslash-separated decimal strings of a DS or IS value (PS3.5 6.2), NaN where one is not a number. */
+        private double[] decimals() {
+            String t = text();
+            if (t.isEmpty()) {
+                return new double[0];
+            }
+            String[] p = t.split("\\\\");
+            double[] v = new double[p.length];
+            for (int i = 0; i < p.length; i++) {
+                try {
+                    v[i] = Double.parseDouble(p[i].trim());
+                } catch (NumberFormatException e) {
+                    v[i] = Double.NaN;
                 }
             }
+            return v;
         }
     }
 
@@ -320,12 +348,18 @@ public final class DicomFile {
                 return new Header(vr, signedLength(b.getInt(pos + 4)), 8);
             }
             need(pos + 8);
-            int code = ((b.get(pos + 4) & 0xff) << 8) | (b.get(pos + 5) & 0xff);
-            String vr = VRS.get(code);
-            if (vr == null) {
+            int c0 = b.get(pos + 4) - 'A';
+            int c1 = b.get(pos + 5) - 'A';
+            int code = c0 >= 0 && c0 < 26 && c1 >= 0 && c1 < 26 ? 26 * c0 + c1 : -1;
+            String vr = code >= 0 ? VRS[code] : null;
+            boolean longLength;
+            if (vr != null) {
+                longLength = LONG[code];
+            } else {
                 vr = new String(new byte[] {b.get(pos + 4), b.get(pos + 5)}, StandardCharsets.US_ASCII);
+                longLength = LONG_VR.contains(vr);
             }
-            if (LONG_VR.contains(vr)) {
+            if (longLength) {
                 need(pos + 12);
                 return new Header(vr, signedLength(b.getInt(pos + 8)), 12);
             }
@@ -355,9 +389,9 @@ public final class DicomFile {
             int tag = tag(pos);
             Header h = header(pos);
             int start = pos + h.size();
-            boolean sequence = "SQ".equals(h.vr()) || !explicit && SEQUENCES.contains(tag)
+            boolean sequence = "SQ".equals(h.vr()) || !explicit && in(SEQUENCE_TAGS, tag)
                     || h.length() < 0 && (h.vr() == null || "UN".equals(h.vr()));
-            if (sequence && h.length() >= 0 && !SEQUENCES.contains(tag)) {
+            if (sequence && h.length() >= 0 && !in(SEQUENCE_TAGS, tag)) {
                 if (start + h.length() > b.limit()) {
                     throw truncated();
                 }
@@ -397,7 +431,7 @@ public final class DicomFile {
                     }
                     items.add(item);
                 }
-                if (SEQUENCES.contains(tag)) {
+                if (in(SEQUENCE_TAGS, tag)) {
                     into.put(tag, items);
                 }
                 return h.length() < 0 ? q : (int) (start + h.length());
@@ -409,7 +443,7 @@ public final class DicomFile {
             if (end > b.limit()) {
                 throw truncated();
             }
-            if (h.length() <= 1024 && (depth > 0 || KEPT.contains(tag))) {
+            if (h.length() <= 1024 && (depth > 0 || in(KEPT_TAGS, tag))) {
                 byte[] v = new byte[(int) h.length()];
                 b.get(start, v);
                 String vr = h.vr() != null ? h.vr() : BINARY.getOrDefault(tag, "TX");

@@ -275,15 +275,26 @@ public final class SpatialCorrelation {
                 int hy = lagY[l];
                 int xs = Math.max(0, -hx);
                 int xe = Math.min(w, w - hx);
-                double prod = 0;
+                // four running sums: independent additions the processor overlaps (one sum waits on each add)
+                double p0 = 0;
+                double p1 = 0;
+                double p2 = 0;
+                double p3 = 0;
                 for (int y = 0; y + hy < h; y++) {
                     int rowA = y * w;
                     int rowB = (y + hy) * w + hx;
-                    for (int x = xs; x < xe; x++) {
-                        prod += d[rowA + x] * d[rowB + x];
+                    int x = xs;
+                    for (; x + 3 < xe; x += 4) {
+                        p0 += d[rowA + x] * d[rowB + x];
+                        p1 += d[rowA + x + 1] * d[rowB + x + 1];
+                        p2 += d[rowA + x + 2] * d[rowB + x + 2];
+                        p3 += d[rowA + x + 3] * d[rowB + x + 3];
+                    }
+                    for (; x < xe; x++) {
+                        p0 += d[rowA + x] * d[rowB + x];
                     }
                 }
-                products[l] += prod;
+                products[l] += (p0 + p1) + (p2 + p3);
                 pairs[l] += countedPairs[l];
             }
         }

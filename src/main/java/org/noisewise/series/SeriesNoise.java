@@ -32,7 +32,7 @@ public final class SeriesNoise {
      * drift's simulated quantiles scatter by about 1/sqrt(DRAWS), an AR(1) coefficient is known to about
      * 1/sqrt(n)), and below the digits any output shows.
      */
-    static final double BISECTION_TOLERANCE = 1e-10;
+    static final double BISECTION_TOLERANCE = 1e-7;
 
     private SeriesNoise() {
     }

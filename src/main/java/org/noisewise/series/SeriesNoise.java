@@ -106,9 +106,14 @@ public final class SeriesNoise {
             for (int i = 0; i < DRAWS; i++) {
                 d[i] = drift(trend, lambda * a1 + z1[i], lambda * a2 + z2[i], mean);
             }
-            java.util.Arrays.sort(d);
-            return new double[] {d[(int) Math.floor(0.025 * (DRAWS - 1))], d[(int) Math.ceil(0.975 * (DRAWS - 1))],
-                d[(int) Math.ceil(0.95 * (DRAWS - 1))]};
+            // the three order statistics a sort would give, found by selection (k95 < k975, k025 below both)
+            int k025 = (int) Math.floor(0.025 * (DRAWS - 1));
+            int k975 = (int) Math.ceil(0.975 * (DRAWS - 1));
+            int k95 = (int) Math.ceil(0.95 * (DRAWS - 1));
+            double q95 = select(d, 0, DRAWS - 1, k95);
+            double q975 = select(d, k95 + 1, DRAWS - 1, k975);
+            double q025 = select(d, 0, k95 - 1, k025);
+            return new double[] {q025, q975, q95};
         };
         // the scale of one standard error of the drift, for the search brackets
         double se = Math.max(drift(trend, s1, 0, mean), drift(trend, 0, s2, mean));
@@ -146,6 +151,45 @@ public final class SeriesNoise {
             }
         }
         return new Interval(low, a * observed);
+    }
+
+    /**
+     * The value a sort of {@code a[lo..hi]} would put at index {@code k} (Hoare's selection, median-of-three
+     * pivots); reorders that range so that nothing before {@code k} is larger and nothing after it smaller.
+     */
+    static double select(double[] a, int lo, int hi, int k) {
+        while (lo < hi) {
+            int mid = (lo + hi) >>> 1;
+            double x = a[lo];
+            double y = a[mid];
+            double z = a[hi];
+            double pivot = x < y ? (y < z ? y : Math.max(x, z)) : (x < z ? x : Math.max(y, z));
+            int i = lo;
+            int j = hi;
+            while (i <= j) {
+                while (a[i] < pivot) {
+                    i++;
+                }
+                while (a[j] > pivot) {
+                    j--;
+                }
+                if (i <= j) {
+                    double t = a[i];
+                    a[i] = a[j];
+                    a[j] = t;
+                    i++;
+                    j--;
+                }
+            }
+            if (k <= j) {
+                hi = j;
+            } else if (k >= i) {
+                lo = i;
+            } else {
+                return a[k];
+            }
+        }
+        return a[k];
     }
 
     /**

@@ -165,7 +165,7 @@ public class BatchCommand implements Callable<Integer> {
                     case stability -> StabilityCommand.run(imp, item.name(), regions,
                             org.noisewise.measure.StabilityMeasure.Options.measure(Slices.selectZ(imp, slice),
                                     skip == null ? org.noisewise.series.Stability.DEFAULT_SKIP : skip,
-                                    roiSize == null ? org.noisewise.series.Stability.DEFAULT_ROI : roiSize, false),
+                                    roiSize == null ? org.noisewise.series.Stability.DEFAULT_ROI : roiSize, false, false),
                             item.path(), Progress.NONE).measurement().rows();
                 };
                 for (ResultRow row : r) {

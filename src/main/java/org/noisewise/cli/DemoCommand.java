@@ -115,7 +115,7 @@ public class DemoCommand implements Callable<Integer> {
     private void stability() throws InputException {
         ImagePlus imp = ImageFiles.open(samples.resolve(StabilitySample.FILE));
         var r = StabilityMeasure.run(imp, StabilitySample.FILE, null,
-                StabilityMeasure.Options.measure(new int[] {1}, 2, 21, false), null, Progress.NONE).results().get(0);
+                StabilityMeasure.Options.measure(new int[] {1}, 2, 21, false, false), null, Progress.NONE).results().get(0);
         out.printf(Locale.ROOT, "%n%s  (%d frames used, 21x21 square on the phantom)%n", StabilitySample.FILE,
                 r.framesUsed());
         out.printf(Locale.ROOT, ROW, "", "true", "measured", "95% interval");

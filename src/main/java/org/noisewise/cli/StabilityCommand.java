@@ -110,7 +110,7 @@ public class StabilityCommand implements Callable<Integer> {
             ImageWriter.checkFolderWritable(p);
         }
         StabilityMeasure.Outcome out = run(imp, image.getFileName().toString(), regions,
-                new StabilityMeasure.Options(zs, skip, roiSize, maps != null, log, report, force, logKeys.scanner,
+                new StabilityMeasure.Options(zs, skip, roiSize, maps != null, plots != null, log, report, force, logKeys.scanner,
                         logKeys.coil, logKeys.protocol, logKeys.baseline), image, progress);
         Measurement m = out.measurement();
         for (int i = 0; i < m.images().size(); i++) {

@@ -95,7 +95,7 @@ public class StabilityCommand implements PlugIn {
                         + "one. Select one region in the ROI Manager, or name only one 'signal'.");
             }
             int[] zs = all ? Planes.allZ(series) : new int[] {Face.currentZ(series, imp)};
-            StabilityMeasure.Options o = new StabilityMeasure.Options(zs, skip, side, maps,
+            StabilityMeasure.Options o = new StabilityMeasure.Options(zs, skip, side, maps, plots,
                     log.isEmpty() ? null : Path.of(log), report.isEmpty() ? null : Path.of(report), replace, scanner,
                     coil, protocol, baseline);
             StabilityMeasure.Outcome out = measure(imp, signal.isEmpty() ? null : signal.get(0), o);
@@ -129,7 +129,8 @@ public class StabilityCommand implements PlugIn {
     }
 
     /**
-     * Measures without dialogs; never modifies {@code imp}. The maps and plots are returned, not shown.
+     * Measures without dialogs; never modifies {@code imp}. The maps and plots (when the options ask for them)
+     * are returned, not shown.
      *
      * @param signal the signal region, or null for the square centred on the phantom
      */

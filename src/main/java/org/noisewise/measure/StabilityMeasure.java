@@ -53,6 +53,7 @@ public final class StabilityMeasure {
      * @param skip     frames dropped at the start
      * @param roiSize  side of the square centred on the phantom (ignored when a signal region is given)
      * @param maps     return the map images
+     * @param plots    return the three plots per slice (made only when asked for: they cost more than the figures)
      * @param log      QA log to append to, or null
      * @param report   HTML report, or null
      * @param force    replace an existing report
@@ -61,8 +62,8 @@ public final class StabilityMeasure {
      * @param protocol protocol key (null: DICOM)
      * @param baseline sessions forming the baseline
      */
-    public record Options(int[] zs, int skip, int roiSize, boolean maps, Path log, Path report, boolean force,
-                          String scanner, String coil, String protocol, int baseline) {
+    public record Options(int[] zs, int skip, int roiSize, boolean maps, boolean plots, Path log, Path report,
+                          boolean force, String scanner, String coil, String protocol, int baseline) {
         public Options {
             zs = zs.clone();
         }
@@ -73,8 +74,9 @@ public final class StabilityMeasure {
         }
 
         /** Measure only, no log or report. */
-        public static Options measure(int[] zs, int skip, int roiSize, boolean maps) {
-            return new Options(zs, skip, roiSize, maps, null, null, false, null, null, null, QaLog.DEFAULT_BASELINE);
+        public static Options measure(int[] zs, int skip, int roiSize, boolean maps, boolean plots) {
+            return new Options(zs, skip, roiSize, maps, plots, null, null, false, null, null, null,
+                    QaLog.DEFAULT_BASELINE);
         }
     }
 
@@ -163,9 +165,11 @@ public final class StabilityMeasure {
             if (o.maps()) {
                 images.add(ResultImages.stabilityStack(title + " stability maps" + suffix, sl.maps(), imp, unit));
             }
-            plots.add(StabilityPlots.series("Stability series - " + title + suffix, r, unit));
-            plots.add(StabilityPlots.spectrum("Stability spectrum - " + title + suffix, r, unit));
-            plots.add(StabilityPlots.weisskoff("Weisskoff curve - " + title + suffix, r));
+            if (o.plots()) {
+                plots.add(StabilityPlots.series("Stability series - " + title + suffix, r, unit));
+                plots.add(StabilityPlots.spectrum("Stability spectrum - " + title + suffix, r, unit));
+                plots.add(StabilityPlots.weisskoff("Weisskoff curve - " + title + suffix, r));
+            }
         }
         Acquisition.addEfficiency(rows, imp, notes);
         List<QaLog.Entry> entries = new ArrayList<>();

@@ -221,6 +221,21 @@ class FijiFaceTest {
         assertNotNull(s.getOverlay(), "the square is not drawn");
         assertEquals(before, TestImages.checksum(s));
         assertNull(s.getRoi());
+        // the plots are made and shown only when asked for
+        assertEquals(0, plotWindows(), "plots shown without 'plots'");
+        IJ.run(s, "Stability (Time Series)...", "slices=[Current slice] skip=2 square=21 plots baseline=5");
+        assertEquals(3, plotWindows(), "series, spectrum and Weisskoff plots");
+        assertEquals(before, TestImages.checksum(s));
+    }
+
+    private static int plotWindows() {
+        int n = 0;
+        for (int id : WindowManager.getIDList() == null ? new int[0] : WindowManager.getIDList()) {
+            String t = WindowManager.getImage(id).getTitle();
+            n += t.startsWith("Stability series - ") || t.startsWith("Stability spectrum - ")
+                    || t.startsWith("Weisskoff curve - ") ? 1 : 0;
+        }
+        return n;
     }
 
     /** Each dialog's Help is the command's own README section, macro keys included. */

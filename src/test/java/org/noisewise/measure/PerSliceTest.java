@@ -92,12 +92,12 @@ class PerSliceTest {
     void stabilityRowsEqualEachSliceMeasuredAlone() throws Exception {
         ImagePlus imp = hyperstack(40);
         StabilityMeasure.Outcome all = StabilityMeasure.run(imp, "slices", null,
-                StabilityMeasure.Options.measure(all(), 2, 12, true), null, Progress.NONE);
+                StabilityMeasure.Options.measure(all(), 2, 12, true, true), null, Progress.NONE);
         assertEquals(Z, all.measurement().rows().size());
         assertEquals(3 * Z, all.measurement().plots().size());
         for (int z = 1; z <= Z; z++) {
             StabilityMeasure.Outcome one = StabilityMeasure.run(imp, "slices", null,
-                    StabilityMeasure.Options.measure(new int[] {z}, 2, 12, false), null, Progress.NONE);
+                    StabilityMeasure.Options.measure(new int[] {z}, 2, 12, false, false), null, Progress.NONE);
             assertSameRow(one.measurement().rows().get(0), all.measurement().rows().get(z - 1), "z " + z);
         }
         long squareNotes = all.measurement().notes().stream().filter(n -> n.startsWith("region: the 12x12 square"))
@@ -109,7 +109,7 @@ class PerSliceTest {
     void theErrorIsTheFirstFailingSlices() {
         ImagePlus imp = hyperstack(20, 4, 2);
         InputException e = assertThrows(InputException.class, () -> StabilityMeasure.run(imp, "slices", null,
-                StabilityMeasure.Options.measure(all(), 2, 12, false), null, Progress.NONE));
+                StabilityMeasure.Options.measure(all(), 2, 12, false, false), null, Progress.NONE));
         assertTrue(e.getMessage().contains("z 2 of 6"), e.getMessage());
     }
 }

@@ -181,7 +181,7 @@ class SampleImagesTest {
             assertArrayEquals(frames[t], (short[]) imp.getStack().getPixels(imp.getStackIndex(1, 1, t + 1)), "frame " + t);
         }
         var out = org.noisewise.measure.StabilityMeasure.run(imp, "sample", null,
-                org.noisewise.measure.StabilityMeasure.Options.measure(new int[] {1}, 2, 21, false), null,
+                org.noisewise.measure.StabilityMeasure.Options.measure(new int[] {1}, 2, 21, false, false), null,
                 org.noisewise.measure.Progress.NONE);
         var r = out.results().get(0);
         assertTrue(r.sfnrCi95().contains(org.noisewise.sample.StabilitySample.trueSfnr()), r.sfnrCi95().toString());

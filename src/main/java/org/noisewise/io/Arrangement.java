@@ -28,6 +28,7 @@ public final class Arrangement {
     public static final String PROPERTY = "noisewise.arrangement";
     /** Image property of an arranged view: the z slice (1-based) of each plane of the image it was made from. */
     static final String PLANE_Z = "noisewise.planeZ";
+    static final String PLANE_T = "noisewise.planeT";
 
     private Arrangement() {
     }
@@ -75,6 +76,18 @@ public final class Arrangement {
             return fromFrames(imp, file, echo, echoHint);
         }
         return imp;
+    }
+
+    /**
+     * The z slice and repeat (1-based) of plane {@code plane} (1-based) of the image the view was made from,
+     * or null for a plane the view left out (another echo) or a view that does not say.
+     */
+    public static int[] positionOf(ImagePlus view, int plane) {
+        if (view.getProperty(PLANE_Z) instanceof int[] z && view.getProperty(PLANE_T) instanceof int[] t
+                && plane >= 1 && plane <= z.length && z[plane - 1] > 0) {
+            return new int[] {z[plane - 1], t[plane - 1]};
+        }
+        return null;
     }
 
     /** The z slice (1-based) that plane {@code plane} (1-based) of the image the view was made from lies in. */
@@ -249,10 +262,13 @@ public final class Arrangement {
             v.setProperty("Info", info);
         }
         int[] planeZ = new int[src.getSize()];
+        int[] planeT = new int[src.getSize()];
         for (int k = 0; k < order.length; k++) {
             planeZ[order[k]] = k % layout.slices() + 1;
+            planeT[order[k]] = k / layout.slices() + 1;
         }
         v.setProperty(PLANE_Z, planeZ);
+        v.setProperty(PLANE_T, planeT);
         String note = "'" + imp.getTitle() + "' is arranged as " + layout.note() + ", read from " + source;
         if (recalibrated != null) {
             note += "; " + recalibrated;

@@ -106,6 +106,7 @@ public final class BackgroundMeasure {
         progress.report(1.0, "");
         Acquisition.addEfficiency(rows, imp, notes);
         ImagePlus mask = air.maskImage(title);
-        return new Measurement(rows, mask == null ? List.of() : List.of(mask), List.of(), notes);
+        return new Measurement(Planes.withPositions(rows, imp), mask == null ? List.of() : List.of(mask), List.of(),
+                notes);
     }
 }

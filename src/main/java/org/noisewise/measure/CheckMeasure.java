@@ -108,6 +108,6 @@ public final class CheckMeasure {
         }
         progress.report(1.0, "");
         ImagePlus mask = air.maskImage(title);
-        return new Measurement(rows, mask == null ? List.of() : List.of(mask), plots, notes);
+        return new Measurement(Planes.withPositions(rows, imp), mask == null ? List.of() : List.of(mask), plots, notes);
     }
 }

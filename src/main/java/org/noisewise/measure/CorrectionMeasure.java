@@ -107,6 +107,6 @@ public final class CorrectionMeasure {
             res.setStack(out, imp.getNChannels(), imp.getNSlices(), imp.getNFrames());
         }
         progress.report(1.0, "");
-        return new Measurement(rows, List.of(res), List.of(), notes);
+        return new Measurement(Planes.withPositions(rows, imp), List.of(res), List.of(), notes);
     }
 }

@@ -204,7 +204,7 @@ public final class NoiseScanMeasure {
         if (mask != null) {
             images.add(mask);
         }
-        return new Measurement(rows, images, List.of(), notes);
+        return new Measurement(Planes.withPositions(rows, imp), images, List.of(), notes);
     }
 
     /** The image's background ML sigma over the scan's in the same pixels. */

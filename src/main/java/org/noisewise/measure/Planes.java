@@ -1,9 +1,12 @@
 package org.noisewise.measure;
 
 import ij.ImagePlus;
+import java.util.List;
 import java.util.stream.IntStream;
 import org.noisewise.estimate.InputException;
+import org.noisewise.io.Arrangement;
 import org.noisewise.io.StackPlanes;
+import org.noisewise.report.ResultRow;
 
 /**
  * Which planes a measurement covers. Single-plane methods (background, check, correction) count stack
@@ -58,9 +61,50 @@ public final class Planes {
     public static int[] one(ImagePlus imp, int n) throws InputException {
         if (n < 1 || n > imp.getStackSize()) {
             throw new InputException("slice " + n + " does not exist: '" + imp.getTitle() + "' has "
-                    + imp.getStackSize() + " slice(s), numbered from 1");
+                    + imp.getStackSize() + (StackPlanes.hasTimeAxis(imp) ? " planes (" + imp.getNSlices()
+                    + " z slice(s) x " + imp.getNFrames() + " repeat(s); this method measures one plane at a time)"
+                    : " slice(s)") + ", numbered from 1");
         }
         return new int[] {n};
+    }
+
+    /**
+     * Names each row's z slice and repeat after its stack plane ({@code slice}) when the image is a Z x T
+     * series, so a plane says where it sits: a hyperstack's own positions (ImageJ's order, z fastest), or,
+     * for a plain stack ImageJ opened from DICOM (File > Import > Image Sequence), the positions its
+     * headers give (the plane numbers stay the user's). Other images' planes are their slices and the rows
+     * stay as they are; so do a stack's rows when its headers do not make one series of one echo.
+     */
+    static List<ResultRow> withPositions(List<ResultRow> rows, ImagePlus imp) {
+        java.util.function.IntFunction<int[]> position;
+        if (StackPlanes.hasTimeAxis(imp)) {
+            position = n -> {
+                int[] czt = imp.convertIndexToPosition(n);
+                return new int[] {czt[1], czt[2]};
+            };
+        } else if (imp.getStackSize() > 1 && !rows.isEmpty()) {
+            ImagePlus view;
+            try {
+                view = Arrangement.of(imp, null, "");
+            } catch (InputException e) {
+                return rows;
+            }
+            if (view == imp || view.getNFrames() < 2) {
+                return rows;
+            }
+            position = n -> Arrangement.positionOf(view, n);
+        } else {
+            return rows;
+        }
+        for (ResultRow r : rows) {
+            if (r.get("slice") instanceof Number n && n.intValue() >= 1 && n.intValue() <= imp.getStackSize()) {
+                int[] zt = position.apply(n.intValue());
+                if (zt != null) {
+                    r.addAfter("slice", "z", "Z slice", zt[0]).addAfter("z", "repeat", "Repeat", zt[1]);
+                }
+            }
+        }
+        return rows;
     }
 
     /** Every z slice (time frames are repeats). */

@@ -151,12 +151,17 @@ public final class Formats {
             }
             return sb.toString();
         }
-        List<String> heads = rows.get(0).headings();
+        List<ResultRow.Cell> columns = columns(rows);
+        List<String> heads = columns.stream().map(ResultRow.Cell::heading).toList();
         List<List<String>> lines = new java.util.ArrayList<>(rows.size());
         for (ResultRow r : rows) {
-            List<String> line = new java.util.ArrayList<>(heads.size());
+            java.util.Map<String, String> byKey = new java.util.HashMap<>();
             for (ResultRow.Cell c : r.tableCells()) {
-                line.add(shown(r, c));
+                byKey.put(c.key(), shown(r, c));
+            }
+            List<String> line = new java.util.ArrayList<>(heads.size());
+            for (ResultRow.Cell col : columns) {
+                line.add(byKey.getOrDefault(col.key(), ""));
             }
             lines.add(line);
         }
@@ -199,12 +204,45 @@ public final class Formats {
         if (rows.isEmpty()) {
             return "";
         }
-        sb.append(rows.get(0).headings().stream().map(Formats::csvField).collect(Collectors.joining(","))).append("\r\n");
+        List<ResultRow.Cell> columns = columns(rows);
+        sb.append(columns.stream().map(c -> csvField(c.heading())).collect(Collectors.joining(","))).append("\r\n");
         for (ResultRow r : rows) {
-            sb.append(r.tableCells().stream().map(c -> csvField(csvValue(c.value()))).collect(Collectors.joining(",")))
-                    .append("\r\n");
+            java.util.Map<String, Object> byKey = new java.util.HashMap<>();
+            for (ResultRow.Cell c : r.tableCells()) {
+                byKey.put(c.key(), c.value());
+            }
+            sb.append(columns.stream().map(c -> csvField(byKey.containsKey(c.key()) ? csvValue(byKey.get(c.key())) : ""))
+                    .collect(Collectors.joining(","))).append("\r\n");
         }
         return sb.toString();
+    }
+
+    /**
+     * The table columns of several rows: the first row's, then any column a later row adds, placed after
+     * the column it follows in that row (a Z x T series' z slice and repeat beside a 2-D image's rows in
+     * one batch); a row without a column leaves it blank.
+     */
+    static List<ResultRow.Cell> columns(List<ResultRow> rows) {
+        List<ResultRow.Cell> out = new java.util.ArrayList<>();
+        java.util.Set<String> seen = new java.util.HashSet<>();
+        for (ResultRow r : rows) {
+            String previous = null;
+            for (ResultRow.Cell c : r.tableCells()) {
+                if (seen.add(c.key())) {
+                    int at = 0;
+                    if (previous != null) {
+                        for (int i = 0; i < out.size(); i++) {
+                            if (out.get(i).key().equals(previous)) {
+                                at = i + 1;
+                            }
+                        }
+                    }
+                    out.add(at, c);
+                }
+                previous = c.key();
+            }
+        }
+        return out;
     }
 
     /**

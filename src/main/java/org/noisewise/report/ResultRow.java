@@ -27,6 +27,17 @@ public final class ResultRow {
         return this;
     }
 
+    /** Inserts a cell right after the cell with key {@code after} (at the end when there is none). */
+    public ResultRow addAfter(String after, String key, String heading, Object value) {
+        for (int i = 0; i < cells.size(); i++) {
+            if (cells.get(i).key().equals(after)) {
+                cells.add(i + 1, new Cell(key, heading, value));
+                return this;
+            }
+        }
+        return add(key, heading, value);
+    }
+
     public List<Cell> cells() {
         return Collections.unmodifiableList(cells);
     }

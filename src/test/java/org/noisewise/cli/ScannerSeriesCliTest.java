@@ -1,6 +1,7 @@
 package org.noisewise.cli;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.google.gson.JsonArray;
@@ -9,11 +10,13 @@ import com.google.gson.JsonObject;
 import com.google.gson.JsonParser;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.List;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.noisewise.io.DicomSeriesWriter;
 import org.noisewise.testing.ScannerSeries;
+import org.noisewise.testing.TestImages;
 
 /**
  * Issue 19 through the command line, as a physicist runs it on files written as scanners write them:
@@ -158,6 +161,61 @@ class ScannerSeriesCliTest {
         JsonObject row = rows(r).get(0).getAsJsonObject();
         assertEquals("repeated", row.get("method").getAsString(), row.toString());
         assertEquals(3, row.get("slice").getAsInt());
+    }
+
+    /**
+     * The single-plane methods measure every plane of the series; each row names the plane's z slice and
+     * repeat, and a plane number beyond the series says how the planes are counted.
+     */
+    @Test
+    void planeByPlaneRowsNameTheirSliceAndRepeat() throws Exception {
+        JsonArray rows = rows(CliRunner.run("background", folder.toString(), "--signal", ScannerSeries.SIGNAL,
+                "--background", "2,2,10,10", "--background", "52,52,10,10", "--json"));
+        assertEquals(Z * T, rows.size());
+        for (int n = 1; n <= Z * T; n++) {
+            JsonObject row = rows.get(n - 1).getAsJsonObject();
+            assertEquals(n, row.get("slice").getAsInt());
+            assertEquals((n - 1) % Z + 1, row.get("z").getAsInt(), "plane " + n);
+            assertEquals((n - 1) / Z + 1, row.get("repeat").getAsInt(), "plane " + n);
+            // the amplitude rises with z (100 + 20 z): the z named is the one measured
+            assertEquals(ScannerSeries.amplitude(row.get("z").getAsInt() - 1),
+                    row.get("signal_amplitude").getAsDouble(), 1.0, "plane " + n);
+        }
+        CliRunner.Result text = CliRunner.run("check", folder.toString(), "--background", "2,2,10,10", "--slice", "6");
+        assertEquals(0, text.status(), text.err());
+        assertTrue(text.out().contains("Z slice") && text.out().contains("Repeat"), text.out());
+        CliRunner.Result beyond = CliRunner.run("background", folder.toString(), "--signal", ScannerSeries.SIGNAL,
+                "--background", "2,2,10,10", "--slice", String.valueOf(Z * T + 1));
+        assertEquals(3, beyond.status());
+        assertTrue(beyond.err().contains(Z * T + " planes (" + Z + " z slice(s) x " + T + " repeat(s)"), beyond.err());
+        // a plain 2-D image's rows are as before
+        Path flat = TestImages.saveTiff(TestImages.phantom("flat", 100, 4, 1, 7), dir, "flat.tif");
+        JsonObject one = rows(CliRunner.run("background", flat.toString(), "--signal", "38,38,20,20", "--background",
+                "2,2,16,16", "--json")).get(0).getAsJsonObject();
+        assertFalse(one.has("z") || one.has("repeat"), one.toString());
+        // one batch over both: every CSV line has the same columns, blank where an image has no repeat
+        Path root = Files.createDirectories(dir.resolve("mixedroot"));
+        ScannerSeries.folder(ScannerSeries.spec("mixed", 2, 3, SEED, false), root, "series");
+        Files.copy(flat, root.resolve("flat.tif"));
+        Path csv = dir.resolve("mixed.csv");
+        CliRunner.Result batch = CliRunner.run("batch", root.toString(), "--method", "background", "--signal",
+                "24,24,16,16", "--background", "2,2,10,10", "--csv", csv.toString());
+        assertEquals(0, batch.status(), batch.err());
+        List<String> lines = Files.readAllLines(csv);
+        assertEquals(1 + 2 * 3 + 1, lines.size(), String.join("\n", lines));
+        List<String> head = List.of(fields(lines.get(0)));
+        int zCol = head.indexOf("Z slice");
+        assertTrue(zCol > 0, lines.get(0));
+        for (String line : lines) {
+            assertEquals(head.size(), fields(line).length, line);
+        }
+        long blank = lines.stream().skip(1).filter(l -> fields(l)[zCol].isEmpty()).count();
+        assertEquals(1, blank, "the 2-D image's row has no z slice");
+    }
+
+    /** The fields of one CSV line (RFC 4180: commas inside quotes belong to the field). */
+    private static String[] fields(String line) {
+        return line.split(",(?=(?:[^\"]*\"[^\"]*\")*[^\"]*$)", -1);
     }
 
     @Test

@@ -112,6 +112,54 @@ class ScannerSeriesFijiTest {
         measureAsTheCommandLine(imp, folder);
     }
 
+    /**
+     * The single-plane commands measure the planes of the stack as imported (the user's plane numbers); each
+     * row names the z slice and repeat the headers give, with the command line's figures for that z and
+     * repeat of the same folder.
+     */
+    @Test
+    void planeByPlaneRowsNameTheirSliceAndRepeatAsTheCommandLine() {
+        // slice-major Instance Numbers: the import's order (by file name) is not ImageJ's z-fastest order
+        Path folder = ScannerSeries.folder(ScannerSeries.spec("fijiplanes", Z, T, SEED, false)
+                .numbering(DicomSeriesWriter.Numbering.SLICE_MAJOR), dir, "fijiplanes");
+        ImagePlus imp = FolderOpener.open(folder.toString());
+        String before = TestImages.checksum(imp);
+        imp.show();
+        Roi signal = new Roi(24, 24, 16, 16);
+        signal.setName("signal");
+        rm.addRoi(signal);
+        Roi air = new Roi(2, 2, 10, 10);
+        air.setName("background");
+        rm.addRoi(air);
+        IJ.run(imp, "SNR (Background Regions)...", "channels=1 slices=[All slices]");
+        ResultsTable rt = ResultsTable.getResultsTable(BackgroundSnrCommand.tableTitle(imp));
+        assertNotNull(rt, String.valueOf(IJ.getLog()));
+        assertEquals(Z * T, rt.size());
+        JsonArray cli = cli("background", folder.toString(), "--signal", ScannerSeries.SIGNAL, "--background",
+                "2,2,10,10", "--json");
+        java.util.Map<String, Double> byPosition = new java.util.HashMap<>();
+        for (int i = 0; i < cli.size(); i++) {
+            com.google.gson.JsonObject row = cli.get(i).getAsJsonObject();
+            byPosition.put(row.get("z").getAsInt() + "," + row.get("repeat").getAsInt(), row.get("snr").getAsDouble());
+        }
+        java.util.Set<String> seen = new java.util.HashSet<>();
+        boolean reordered = false;
+        for (int i = 0; i < rt.size(); i++) {
+            int plane = (int) rt.getValue("Slice", i);
+            int z = (int) rt.getValue("Z slice", i);
+            int t = (int) rt.getValue("Repeat", i);
+            assertTrue(seen.add(z + "," + t), "each z and repeat once");
+            reordered |= plane != (t - 1) * Z + z;
+            Double want = byPosition.get(z + "," + t);
+            assertNotNull(want, z + "," + t);
+            assertEquals(want, rt.getValue("SNR (corrected)", i), 1e-6 * want, "plane " + plane);
+        }
+        assertTrue(reordered, "the import's planes are in file order, not ImageJ's z-fastest order");
+        assertEquals(before, TestImages.checksum(imp), "pixels unchanged");
+        assertEquals(1, imp.getNFrames(), "the user's stack is still a plain stack");
+        assertEquals(2, rm.getCount(), "the ROI Manager keeps the user's regions");
+    }
+
     @Test
     void anImageSequenceWithPerImageRescaleUsesEachImagesRescale() {
         Path folder = ScannerSeries.folder(ScannerSeries.spec("fijiscale", Z, T, SEED, true), dir, "fijiscale");

@@ -72,4 +72,21 @@ class FormatsTest {
         assertEquals("7.2     6.0     8.5     long name", lines[2].stripTrailing());
         assertEquals(lines[0].length(), lines[2].length(), "every line padded to the same columns");
     }
+
+    @Test
+    void rowsWithMoreColumnsKeepEveryColumnInItsPlace() {
+        // a 2-D image's row beside a Z x T series' row (which names its z slice and repeat)
+        ResultRow flat = new ResultRow().add("image", "Image", "a").add("slice", "Slice", 1).add("snr", "SNR", 20.0);
+        ResultRow series = new ResultRow().add("image", "Image", "b").add("slice", "Slice", 5)
+                .add("snr", "SNR", 30.0).addAfter("slice", "z", "Z slice", 1).addAfter("z", "repeat", "Repeat", 2);
+        String csv = Formats.toCsv(List.of(flat, series));
+        String[] lines = csv.split("\r\n");
+        assertEquals("Image,Slice,Z slice,Repeat,SNR", lines[0]);
+        assertEquals("a,1,,,20.0", lines[1]);
+        assertEquals("b,5,1,2,30.0", lines[2]);
+        String[] table = Formats.alignedText(List.of(flat, series)).split("\\R");
+        assertEquals("Image  Slice  Z slice  Repeat  SNR", table[0].stripTrailing());
+        assertEquals("a      1                       20", table[1].stripTrailing());
+        assertEquals("b      5      1        2       30", table[2].stripTrailing());
+    }
 }

@@ -6,6 +6,7 @@ import java.util.List;
 import java.util.Locale;
 import org.apache.commons.math3.distribution.ChiSquaredDistribution;
 import org.noisewise.estimate.InputException;
+import org.noisewise.estimate.OrderStatistics;
 import org.noisewise.estimate.Region;
 
 /**
@@ -120,9 +121,9 @@ public final class AirFinder {
             throw tooLittle(pixels, usable, valid, n, "the slice holds too few usable pixels away from zeros, "
                     + "clipped values and the border");
         }
-        double e = select(Arrays.copyOf(means, valid), (int) (0.01 * (valid - 1)));
+        double e = OrderStatistics.selectInPlace(Arrays.copyOf(means, valid), 0, valid - 1, (int) (0.01 * (valid - 1)));
         if (!(e > 0)) {
-            e = select(Arrays.copyOf(means, valid), valid / 2);
+            e = OrderStatistics.selectInPlace(Arrays.copyOf(means, valid), 0, valid - 1, valid / 2);
         }
         double[][] q = quantiles(channels, k, minCount);
         int wideK = WIDE * WIDE;
@@ -231,40 +232,6 @@ public final class AirFinder {
                             : String.format(Locale.ROOT, "1/L, at least %.3g", 1.0 / MAX_CHANNELS)));
         }
         return new Result(air, quadrants(air, width, height), count, (double) count / n, iterations, settling);
-    }
-
-    /** The {@code r}-th smallest value (0-based) of {@code v}, which it reorders (Hoare's selection). */
-    static double select(double[] v, int r) {
-        int lo = 0;
-        int hi = v.length - 1;
-        while (lo < hi) {
-            double pivot = v[(lo + hi) >>> 1];
-            int i = lo;
-            int j = hi;
-            while (i <= j) {
-                while (v[i] < pivot) {
-                    i++;
-                }
-                while (v[j] > pivot) {
-                    j--;
-                }
-                if (i <= j) {
-                    double t = v[i];
-                    v[i] = v[j];
-                    v[j] = t;
-                    i++;
-                    j--;
-                }
-            }
-            if (r <= j) {
-                hi = j;
-            } else if (r >= i) {
-                lo = i;
-            } else {
-                return v[r];
-            }
-        }
-        return v[r];
     }
 
     private static final java.util.concurrent.ConcurrentHashMap<Long, double[][]> QUANTILES =

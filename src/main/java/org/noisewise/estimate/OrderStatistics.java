@@ -118,4 +118,43 @@ public final class OrderStatistics {
         double[] m = select(v, n / 2 - 1, n / 2);
         return 0.5 * (m[0] + m[1]);
     }
+
+    /**
+     * The value a sort of {@code a[lo..hi]} would put at index {@code k} (Hoare's selection, median-of-three
+     * pivots); reorders that range so that nothing before {@code k} is larger and nothing after it smaller.
+     */
+    public static double selectInPlace(double[] a, int lo, int hi, int k) {
+        while (lo < hi) {
+            int mid = (lo + hi) >>> 1;
+            double x = a[lo];
+            double y = a[mid];
+            double z = a[hi];
+            double pivot = x < y ? (y < z ? y : Math.max(x, z)) : (x < z ? x : Math.max(y, z));
+            int i = lo;
+            int j = hi;
+            while (i <= j) {
+                while (a[i] < pivot) {
+                    i++;
+                }
+                while (a[j] > pivot) {
+                    j--;
+                }
+                if (i <= j) {
+                    double t = a[i];
+                    a[i] = a[j];
+                    a[j] = t;
+                    i++;
+                    j--;
+                }
+            }
+            if (k <= j) {
+                hi = j;
+            } else if (k >= i) {
+                lo = i;
+            } else {
+                return a[k];
+            }
+        }
+        return a[k];
+    }
 }

@@ -2,6 +2,7 @@ package org.noisewise.series;
 
 import java.util.SplittableRandom;
 import org.noisewise.estimate.Interval;
+import org.noisewise.estimate.OrderStatistics;
 
 /**
  * The noise structure of a stability series that its intervals must carry: correlation in time, and the
@@ -110,9 +111,9 @@ public final class SeriesNoise {
             int k025 = (int) Math.floor(0.025 * (DRAWS - 1));
             int k975 = (int) Math.ceil(0.975 * (DRAWS - 1));
             int k95 = (int) Math.ceil(0.95 * (DRAWS - 1));
-            double q95 = select(d, 0, DRAWS - 1, k95);
-            double q975 = select(d, k95 + 1, DRAWS - 1, k975);
-            double q025 = select(d, 0, k95 - 1, k025);
+            double q95 = OrderStatistics.selectInPlace(d, 0, DRAWS - 1, k95);
+            double q975 = OrderStatistics.selectInPlace(d, k95 + 1, DRAWS - 1, k975);
+            double q025 = OrderStatistics.selectInPlace(d, 0, k95 - 1, k025);
             return new double[] {q025, q975, q95};
         };
         // the scale of one standard error of the drift, for the search brackets
@@ -151,45 +152,6 @@ public final class SeriesNoise {
             }
         }
         return new Interval(low, a * observed);
-    }
-
-    /**
-     * The value a sort of {@code a[lo..hi]} would put at index {@code k} (Hoare's selection, median-of-three
-     * pivots); reorders that range so that nothing before {@code k} is larger and nothing after it smaller.
-     */
-    static double select(double[] a, int lo, int hi, int k) {
-        while (lo < hi) {
-            int mid = (lo + hi) >>> 1;
-            double x = a[lo];
-            double y = a[mid];
-            double z = a[hi];
-            double pivot = x < y ? (y < z ? y : Math.max(x, z)) : (x < z ? x : Math.max(y, z));
-            int i = lo;
-            int j = hi;
-            while (i <= j) {
-                while (a[i] < pivot) {
-                    i++;
-                }
-                while (a[j] > pivot) {
-                    j--;
-                }
-                if (i <= j) {
-                    double t = a[i];
-                    a[i] = a[j];
-                    a[j] = t;
-                    i++;
-                    j--;
-                }
-            }
-            if (k <= j) {
-                hi = j;
-            } else if (k >= i) {
-                lo = i;
-            } else {
-                return a[k];
-            }
-        }
-        return a[k];
     }
 
     /**

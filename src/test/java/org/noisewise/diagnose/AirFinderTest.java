@@ -274,20 +274,4 @@ class AirFinderTest {
         }
         assertTrue(failures.isEmpty(), failures.toString());
     }
-
-    /** The selection that starts the iteration: the r-th smallest value, checked against a full sort. */
-    @Test
-    void selectionMatchesSorting() {
-        SplittableRandom rng = new SplittableRandom(12);
-        for (int t = 0; t < 200; t++) {
-            double[] v = new double[1 + rng.nextInt(300)];
-            for (int i = 0; i < v.length; i++) {
-                v[i] = rng.nextInt(20);
-            }
-            double[] sorted = v.clone();
-            java.util.Arrays.sort(sorted);
-            int r = rng.nextInt(v.length);
-            assertEquals(sorted[r], AirFinder.select(v.clone(), r), 0.0);
-        }
-    }
 }

@@ -34,4 +34,11 @@ final class CliRunner {
     static boolean holds(JsonArray ci, double truth) {
         return ci.get(0).getAsDouble() <= truth && truth <= ci.get(1).getAsDouble();
     }
+
+    /** Two argument lists one after the other (a command's own arguments, then shared regions). */
+    static String[] concat(String[] a, String[] b) {
+        String[] out = java.util.Arrays.copyOf(a, a.length + b.length);
+        System.arraycopy(b, 0, out, a.length, b.length);
+        return out;
+    }
 }

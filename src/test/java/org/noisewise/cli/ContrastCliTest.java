@@ -49,12 +49,6 @@ class ContrastCliTest {
         return a;
     }
 
-    private static String[] concat(String[] a, String[] b) {
-        String[] out = java.util.Arrays.copyOf(a, a.length + b.length);
-        System.arraycopy(b, 0, out, a.length, b.length);
-        return out;
-    }
-
     /** The figures a user reads: corrected CNR, its interval holding the truth, the plain CNR biased low. */
     private static void assertCnr(JsonObject o, double plainTolerance) {
         double cnr = o.get("cnr").getAsDouble();
@@ -74,11 +68,11 @@ class ContrastCliTest {
 
     @Test
     void backgroundMethod() {
-        JsonObject o = json(CliRunner.run(concat(args("background", IMAGE, "--signal", SIGNAL, "--contrast", CONTRAST,
+        JsonObject o = json(CliRunner.run(CliRunner.concat(args("background", IMAGE, "--signal", SIGNAL, "--contrast", CONTRAST,
                 "--channels", "8", "--slice", "1", "--json"), BG)));
         assertCnr(o, 0.25);
         // the table a user reads shows the same figures under their headings
-        CliRunner.Result t = CliRunner.run(concat(args("background", IMAGE, "--signal", SIGNAL, "--contrast", CONTRAST,
+        CliRunner.Result t = CliRunner.run(CliRunner.concat(args("background", IMAGE, "--signal", SIGNAL, "--contrast", CONTRAST,
                 "--channels", "8", "--slice", "1"), BG));
         assertTrue(t.out().contains("CNR (corrected)") && t.out().contains("CNR plain ((S-C)/sigma)")
                 && t.out().contains("Contrast amplitude (corrected) [a.u.]"), t.out());

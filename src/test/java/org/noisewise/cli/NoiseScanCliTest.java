@@ -43,12 +43,6 @@ class NoiseScanCliTest {
         return a;
     }
 
-    private static String[] concat(String[] a, String[] b) {
-        String[] out = java.util.Arrays.copyOf(a, a.length + b.length);
-        System.arraycopy(b, 0, out, a.length, b.length);
-        return out;
-    }
-
     @Test
     void sigmaAtTheSignalRegionGivesTheTrueSnrWhereTheCornersCannot() throws IOException {
         byte[] before = Files.readAllBytes(Path.of(NOISE));
@@ -65,7 +59,7 @@ class NoiseScanCliTest {
             assertTrue(run.err().contains("channel count estimated from the scan"), run.err());
         }
         // the corners see sigma about 5: the background method's SNR in the middle is far too high
-        JsonObject corners = json(CliRunner.run(concat(args("background", IMAGE, "--signal", CENTRE, "--channels",
+        JsonObject corners = json(CliRunner.run(CliRunner.concat(args("background", IMAGE, "--signal", CENTRE, "--channels",
                 "4", "--json"), CORNERS)));
         assertFalse(holds(corners.getAsJsonArray("snr_ci95"), NoiseScanSample.trueSnr(NoiseScanSample.CENTRE)));
         assertTrue(corners.get("snr").getAsDouble() > 1.5 * NoiseScanSample.trueSnr(NoiseScanSample.CENTRE));
@@ -79,7 +73,7 @@ class NoiseScanCliTest {
 
     @Test
     void theCheckSaysTheBackgroundMisstatesTheSignalRegionsNoise() {
-        JsonObject o = json(CliRunner.run(concat(args("check", IMAGE, "--noise-scan", NOISE, "--signal", CENTRE,
+        JsonObject o = json(CliRunner.run(CliRunner.concat(args("check", IMAGE, "--noise-scan", NOISE, "--signal", CENTRE,
                 "--json"), CORNERS)));
         assertEquals("invalid", o.get("verdict").getAsString());
         String w = o.get("warnings").toString();
@@ -89,7 +83,7 @@ class NoiseScanCliTest {
         assertTrue(holds(o.getAsJsonArray("noise_variation_ci95"), g) || Math.abs(o.get("noise_variation").getAsDouble()
                 / g - 1) < 0.04, o.get("noise_variation").toString());
         // without the scan the same check has no way to see it
-        JsonObject plain = json(CliRunner.run(concat(args("check", IMAGE, "--signal", CENTRE, "--channels", "4",
+        JsonObject plain = json(CliRunner.run(CliRunner.concat(args("check", IMAGE, "--signal", CENTRE, "--channels", "4",
                 "--json"), CORNERS)));
         assertFalse(plain.get("warnings").toString().contains("noise_varies"));
     }
@@ -154,7 +148,7 @@ class NoiseScanCliTest {
         ImagePlus scan = IJ.openImage(NOISE);
         scan.getProcessor().multiply(1.25);
         Path scaled = TestImages.saveTiff(scan, dir, "scaled.tif");
-        JsonObject o = json(CliRunner.run(concat(args("background", IMAGE, "--noise-scan", scaled.toString(),
+        JsonObject o = json(CliRunner.run(CliRunner.concat(args("background", IMAGE, "--noise-scan", scaled.toString(),
                 "--signal", CENTRE, "--json"), CORNERS)));
         assertEquals("invalid", o.get("verdict").getAsString());
         assertTrue(o.get("warnings").toString().contains("noise_scan_scale"), o.get("warnings").toString());
@@ -162,7 +156,7 @@ class NoiseScanCliTest {
         assertTrue(snr == null || snr.isJsonNull(), "no SNR: " + snr);
         assertEquals(0.8, o.get("noise_scale").getAsDouble(), 0.03);
         // the same scan at its own scale passes the check
-        JsonObject own = json(CliRunner.run(concat(args("background", IMAGE, "--noise-scan", NOISE, "--signal", CENTRE,
+        JsonObject own = json(CliRunner.run(CliRunner.concat(args("background", IMAGE, "--noise-scan", NOISE, "--signal", CENTRE,
                 "--json"), CORNERS)));
         assertEquals("valid", own.get("verdict").getAsString());
         assertFalse(own.get("warnings").toString().contains("noise_scan_scale"), own.get("warnings").toString());

@@ -135,9 +135,9 @@ class ScannerSeriesCliTest {
         Path otherTiff = ScannerSeries.tiff(Z, T, SEED + 1, dir, "cli_b.tif");
         for (String[] cmd : new String[][] {{"compare", "ratio_measured"}, {"gfactor", "g_mean"}}) {
             String[] extra = cmd[0].equals("gfactor") ? new String[] {"--acceleration", "1"} : new String[0];
-            JsonArray dicom = rows(CliRunner.run(concat(new String[] {cmd[0], folder.toString(), other.toString(),
+            JsonArray dicom = rows(CliRunner.run(CliRunner.concat(new String[] {cmd[0], folder.toString(), other.toString(),
                 "--signal", ScannerSeries.SIGNAL, "--json"}, extra)));
-            JsonArray hyper = rows(CliRunner.run(concat(new String[] {cmd[0], tiff.toString(), otherTiff.toString(),
+            JsonArray hyper = rows(CliRunner.run(CliRunner.concat(new String[] {cmd[0], tiff.toString(), otherTiff.toString(),
                 "--signal", ScannerSeries.SIGNAL, "--json"}, extra)));
             assertEquals(Z, dicom.size(), cmd[0]);
             for (int z = 0; z < Z; z++) {
@@ -147,12 +147,6 @@ class ScannerSeriesCliTest {
                 assertEquals(1.0, d, 0.085, cmd[0] + " z " + z);
             }
         }
-    }
-
-    private static String[] concat(String[] a, String[] b) {
-        String[] out = java.util.Arrays.copyOf(a, a.length + b.length);
-        System.arraycopy(b, 0, out, a.length, b.length);
-        return out;
     }
 
     @Test

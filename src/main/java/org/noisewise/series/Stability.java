@@ -47,8 +47,10 @@ public final class Stability {
     static final int SAMPLED = 1024;
 
     static final int TILE = 4096;
-    private static final ThreadLocal<double[][]> SCRATCH = ThreadLocal.withInitial(() -> new double[6][TILE]);
-    private static final ThreadLocal<long[][]> WHOLE = ThreadLocal.withInitial(() -> new long[6][TILE]);
+    private static final ThreadLocal<double[][]> SCRATCH = ThreadLocal.withInitial(
+            () -> Blocks.staggeredDoubles(6, TILE));
+    private static final ThreadLocal<long[][]> WHOLE = ThreadLocal.withInitial(
+            () -> Blocks.staggeredLongs(6, TILE));
 
     private Stability() {
     }

@@ -258,33 +258,22 @@ public class BatchCommand implements Callable<Integer> {
         Path skip = exclude == null ? null : exclude.toAbsolutePath().normalize();
         List<Item> items = new ArrayList<>();
         for (Path d : dirs) {
-            List<Path> files;
-            try (Stream<Path> s = Files.list(d)) {
-                files = s.filter(Files::isRegularFile).sorted().toList();
-            } catch (IOException e) {
-                throw new InputException("cannot list folder '" + d + "': " + e.getMessage());
-            }
-            List<Path> dicom = new ArrayList<>();
-            for (Path f : files) {
-                if (skip != null && f.toAbsolutePath().normalize().equals(skip)) {
-                    continue;
-                }
-                if (DicomSeries.isDicom(f)) {
-                    dicom.add(f);
-                } else if (ImageFiles.notAnImage(f)) {
+            // one reading of each file's header says whether it is DICOM, and of which series
+            DicomSeries.Contents contents = DicomSeries.scan(d, f -> skip == null
+                    || !f.toAbsolutePath().normalize().equals(skip));
+            for (Path f : contents.others()) {
+                if (ImageFiles.notAnImage(f)) {
                     leftOut.add(f);
                 } else {
                     items.add(new Item(root.relativize(f).toString(), f, null));
                 }
             }
-            if (!dicom.isEmpty()) {
-                List<DicomSeries.Series> series = DicomSeries.find(d);
-                for (int i = 0; i < series.size(); i++) {
-                    String rel = root.relativize(d).toString();
-                    String name = (rel.isEmpty() ? "." : rel) + " [DICOM series" + (series.size() > 1 ? " " + (i + 1) : "")
-                            + ", " + series.get(i).files().size() + " file(s)]";
-                    items.add(new Item(name, d, series.get(i)));
-                }
+            List<DicomSeries.Series> series = contents.series();
+            for (int i = 0; i < series.size(); i++) {
+                String rel = root.relativize(d).toString();
+                String name = (rel.isEmpty() ? "." : rel) + " [DICOM series" + (series.size() > 1 ? " " + (i + 1) : "")
+                        + ", " + series.get(i).files().size() + " file(s)]";
+                items.add(new Item(name, d, series.get(i)));
             }
         }
         return items;

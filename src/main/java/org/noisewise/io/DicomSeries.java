@@ -41,35 +41,57 @@ public final class DicomSeries {
 
     /** The DICOM files directly in {@code folder}, grouped by series, in a deterministic order. */
     public static List<Series> find(Path folder) throws InputException {
-        List<Path> files = entries(folder);
+        return scan(folder, p -> true).series();
+    }
+
+    /**
+     * What a folder holds directly: its DICOM files grouped by series (in a deterministic order), and
+     * its other regular files (by name). Every file's header is read once, on every core; only a file
+     * that does not parse as DICOM is asked again whether ImageJ calls it DICOM.
+     */
+    public record Contents(List<Series> series, List<Path> others) {
+    }
+
+    /** The contents of {@code folder}, leaving out the entries {@code keep} rejects (never read). */
+    public static Contents scan(Path folder, java.util.function.Predicate<Path> keep) throws InputException {
+        List<Path> files = new ArrayList<>();
+        for (Path p : entries(folder)) {
+            if (keep.test(p)) {
+                files.add(p);
+            }
+        }
         String[] uids = new String[files.size()];
-        boolean[] dicom = new boolean[files.size()];
+        // 1: DICOM; 0: another regular file; -1: not a regular file (a subfolder, a link to nothing)
+        byte[] kind = new byte[files.size()];
         Blocks.tasks(files.size(), i -> {
             Path f = files.get(i);
             DicomFile d;
             try {
                 d = DicomFile.read(f, false);
             } catch (InputException e) {
-                d = null;
-                dicom[i] = Files.isRegularFile(f) && isDicom(f);
+                kind[i] = (byte) (!Files.isRegularFile(f) ? -1 : isDicom(f) ? 1 : 0);
+                return;
             }
             if (d != null) {
-                dicom[i] = true;
+                kind[i] = 1;
                 uids[i] = d.seriesUid();
-            } else if (!dicom[i]) {
-                dicom[i] = isDicom(f);
+            } else {
+                kind[i] = (byte) (isDicom(f) ? 1 : 0);
             }
         });
         Map<String, List<Path>> groups = new LinkedHashMap<>();
+        List<Path> others = new ArrayList<>();
         for (int i = 0; i < files.size(); i++) {
-            if (dicom[i]) {
+            if (kind[i] == 1) {
                 groups.computeIfAbsent(uids[i] == null ? "(no series UID)" : uids[i], k -> new ArrayList<>())
                         .add(files.get(i));
+            } else if (kind[i] == 0) {
+                others.add(files.get(i));
             }
         }
         List<Series> out = new ArrayList<>();
         groups.forEach((uid, list) -> out.add(new Series(uid, list)));
-        return out;
+        return new Contents(out, others);
     }
 
     /**

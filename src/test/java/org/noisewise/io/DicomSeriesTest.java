@@ -246,6 +246,44 @@ class DicomSeriesTest {
         assertTrue(s.getMessage().contains("2 DICOM series"), s.getMessage());
     }
 
+    /**
+     * What batch walks: one reading of each header sorts a folder into its series and its other files;
+     * a subfolder and a link to nothing are neither, and a rejected entry is never read.
+     */
+    @Test
+    void scanSortsAFolderIntoSeriesAndOtherFilesReadingEachHeaderOnce() throws Exception {
+        Path f = folder(ScannerSeries.spec("one", 2, 3, SEED, false), "scan");
+        for (DicomSeriesWriter.File file : DicomSeriesWriter.singleFrame(ScannerSeries.spec("other", 2, 2, SEED, false))) {
+            Files.write(f.resolve("other_" + file.name()), file.bytes());
+        }
+        new ij.io.FileSaver(new ImagePlus("plain", new ij.process.FloatProcessor(8, 8))).saveAsTiff(
+                f.resolve("b_plain.tif").toString());
+        Files.writeString(f.resolve("a_notes.txt"), "not an image");
+        Files.createDirectories(f.resolve("c_sub"));
+        Files.createSymbolicLink(f.resolve("d_gone.dcm"), f.resolve("no-such-file.dcm"));
+        Path excluded = f.resolve("e_results.csv");
+        Files.writeString(excluded, "Image,Status\n");
+        java.util.List<Path> asked = java.util.Collections.synchronizedList(new java.util.ArrayList<>());
+        DicomSeries.Contents c = DicomSeries.scan(f, p -> {
+            asked.add(p);
+            return !p.equals(excluded);
+        });
+        assertEquals(2, c.series().size(), "two series");
+        java.util.Set<Integer> sizes = new java.util.HashSet<>();
+        for (DicomSeries.Series s : c.series()) {
+            sizes.add(s.files().size());
+            for (Path p : s.files()) {
+                assertTrue(p.getFileName().toString().endsWith(".dcm"), p.toString());
+            }
+        }
+        assertEquals(java.util.Set.of(6, 4), sizes, "2 x 3 and 2 x 2 files");
+        assertEquals(java.util.List.of(f.resolve("a_notes.txt"), f.resolve("b_plain.tif")), c.others(),
+                "the other regular files, by name; not the subfolder, the dangling link or the excluded file");
+        assertEquals(1, asked.stream().filter(excluded::equals).count(), "the filter is asked once per entry");
+        // find keeps every entry (the excluded file is not DICOM): the same series
+        assertEquals(c.series(), DicomSeries.find(f));
+    }
+
     /** A plain TIFF stack without dimensions keeps today's rule: its slices are repeats of one slice. */
     @Test
     void aPlainTiffStackKeepsTheOldRule() throws Exception {

@@ -32,7 +32,11 @@ import org.noisewise.sample.Phantoms;
  * <li>ImageJ's route: File > Import > Image Sequence of the folder ({@code FolderOpener}), then
  * Image > Hyperstacks > Stack to Hyperstack (30 slices, 200 frames), and, for the maps, per slice:
  * Image > Duplicate of its frames, Z Project (average, SD) and Image Calculator (divide);</li>
- * <li>one plain streaming pass: every file's bytes read once and summed.</li>
+ * <li>one plain streaming pass: every file's bytes read once and summed;</li>
+ * <li>an archive of {@value #WEEKS} such series (one folder each), where the start of the Java
+ * virtual machine counts once: {@code noisewise batch ROOT --method repeat --signal ...} against
+ * ImageJ's route in one session (a macro importing and arranging each folder, optionally with the
+ * maps).</li>
  * </ul>
  *
  * Runs interleaved (A B C ... A B C) after one warm-up round, median of the per-round ratios. Then, in
@@ -46,6 +50,8 @@ public final class DicomSeriesBenchmark {
     static final int Z = 30;
     static final int T = 200;
     static final String SIGNAL = "22,22,20,20";
+    /** Series in the archive that batch walks. */
+    static final int WEEKS = 4;
 
     private DicomSeriesBenchmark() {
     }
@@ -84,6 +90,19 @@ public final class DicomSeriesBenchmark {
                 }
             }
             System.out.println(hyper.getNSlices() + " " + hyper.getNFrames() + " " + sum);
+        }
+    }
+
+    /**
+     * ImageJ's route over an archive of series in one session (a macro looping over the folders): each
+     * imported and arranged as a hyperstack, optionally with its maps per slice; arguments: "maps" or
+     * "import", then the folders.
+     */
+    public static final class ImageJArchiveRoute {
+        public static void main(String[] args) {
+            for (int i = 1; i < args.length; i++) {
+                ImageJRoute.main(args[0].equals("maps") ? new String[] {args[i], "maps"} : new String[] {args[i]});
+            }
         }
     }
 
@@ -129,6 +148,7 @@ public final class DicomSeriesBenchmark {
         String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
         String cp = jar + System.getProperty("path.separator") + System.getProperty("java.class.path");
         Path dir = Files.createTempDirectory("noisewise-dicom-bench-");
+        Path archive = null;
         try {
             write(dir);
             long bytes = 0;
@@ -136,6 +156,18 @@ public final class DicomSeriesBenchmark {
                 for (Path p : s.toList()) {
                     bytes += Files.size(p);
                 }
+            }
+            // an archive of four weekly exports of the same protocol, each folder a copy of the series
+            archive = Files.createTempDirectory("noisewise-dicom-archive-");
+            List<String> weeks = new ArrayList<>();
+            for (int k = 1; k <= WEEKS; k++) {
+                Path week = Files.createDirectory(archive.resolve("week" + k));
+                try (Stream<Path> s = Files.list(dir)) {
+                    for (Path p : s.toList()) {
+                        Files.copy(p, week.resolve(p.getFileName()));
+                    }
+                }
+                weeks.add(week.toString());
             }
             double pixelBytes = 2.0 * W * W * Z * T;
             System.out.printf(Locale.ROOT, "DICOM folder: %d files of %dx%d (%d slices x %d repeats), %.1f MB on disk, "
@@ -147,9 +179,16 @@ public final class DicomSeriesBenchmark {
                     List.of(java, "-Djava.awt.headless=true", "-cp", cp, ImageJRoute.class.getName(), dir.toString()),
                     List.of(java, "-Djava.awt.headless=true", "-cp", cp, ImageJRoute.class.getName(), dir.toString(),
                             "maps"),
-                    List.of(java, "-cp", cp, StreamingPass.class.getName(), dir.toString()));
+                    List.of(java, "-cp", cp, StreamingPass.class.getName(), dir.toString()),
+                    List.of(java, "-jar", jar, "batch", archive.toString(), "--method", "repeat", "--signal", SIGNAL),
+                    concat(List.of(java, "-Djava.awt.headless=true", "-cp", cp, ImageJArchiveRoute.class.getName(),
+                            "import"), weeks),
+                    concat(List.of(java, "-Djava.awt.headless=true", "-cp", cp, ImageJArchiveRoute.class.getName(),
+                            "maps"), weeks));
             String[] names = {"noisewise repeat", "noisewise stability", "ImageJ: import + hyperstack",
-                "ImageJ: import + hyperstack + maps per slice", "plain streaming pass"};
+                "ImageJ: import + hyperstack + maps per slice", "plain streaming pass",
+                "noisewise batch --method repeat, " + WEEKS + " series", "ImageJ: " + WEEKS + " series imported in one session",
+                "ImageJ: " + WEEKS + " series imported + maps, one session"};
             int rounds = 5;
             double[][] t = new double[contenders.size()][rounds];
             for (List<String> c : contenders) {
@@ -161,12 +200,13 @@ public final class DicomSeriesBenchmark {
                 }
             }
             for (int c = 0; c < contenders.size(); c++) {
-                System.out.printf(Locale.ROOT, "  %-46s median %.2f s (whole process)%n", names[c], median(t[c]));
+                System.out.printf(Locale.ROOT, "  %-50s median %.2f s (whole process)%n", names[c], median(t[c]));
             }
-            String[][] pairs = {{"2", "0"}, {"3", "0"}, {"2", "1"}, {"0", "4"}, {"1", "4"}};
+            String[][] pairs = {{"2", "0"}, {"3", "0"}, {"2", "1"}, {"0", "4"}, {"1", "4"}, {"6", "5"}, {"7", "5"}};
             String[] labels = {"ImageJ import / noisewise repeat", "ImageJ import + maps / noisewise repeat",
                 "ImageJ import / noisewise stability", "noisewise repeat / streaming pass",
-                "noisewise stability / streaming pass"};
+                "noisewise stability / streaming pass", WEEKS + " series: ImageJ import / noisewise batch",
+                WEEKS + " series: ImageJ import + maps / noisewise batch"};
             for (int i = 0; i < pairs.length; i++) {
                 int a = Integer.parseInt(pairs[i][0]);
                 int b = Integer.parseInt(pairs[i][1]);
@@ -174,17 +214,31 @@ public final class DicomSeriesBenchmark {
                 for (int r = 0; r < rounds; r++) {
                     ratio[r] = t[a][r] / t[b][r];
                 }
-                System.out.printf(Locale.ROOT, "  %-46s %.2fx (median of %d interleaved rounds)%n", labels[i],
+                System.out.printf(Locale.ROOT, "  %-50s %.2fx (median of %d interleaved rounds)%n", labels[i],
                         median(ratio), rounds);
             }
             memory(dir, pixelBytes);
         } finally {
-            try (Stream<Path> s = Files.walk(dir)) {
-                for (Path p : s.sorted(Comparator.reverseOrder()).toList()) {
-                    Files.deleteIfExists(p);
-                }
+            delete(dir);
+            delete(archive);
+        }
+    }
+
+    private static void delete(Path root) throws IOException {
+        if (root == null || !Files.exists(root)) {
+            return;
+        }
+        try (Stream<Path> s = Files.walk(root)) {
+            for (Path p : s.sorted(Comparator.reverseOrder()).toList()) {
+                Files.deleteIfExists(p);
             }
         }
+    }
+
+    private static List<String> concat(List<String> a, List<String> b) {
+        List<String> out = new ArrayList<>(a);
+        out.addAll(b);
+        return out;
     }
 
     /** Bytes allocated by every thread while the folder is read, and the heap kept afterwards, per pixel byte. */

@@ -14,7 +14,7 @@ import org.noisewise.measure.StabilityMeasure;
  * Benchmark (not a test): the stability measurement of a 16-bit hyperstack of 64 x 64 pixels x 30 z
  * slices x 200 frames (a phantom disk with noise), every slice, as a user runs it (maps, phantom found,
  * region figures, Weisskoff curve, plots; no files written), against the repeated-acquisition maps of
- * the same data, interleaved after the same warm-up (median of 9). Target: at most 3x. Run:
+ * the same data, interleaved in 21 rounds after 20 warm-ups (median of the per-round ratios). Target: at most 3x. Run:
  * {@code docs/run-benchmarks.sh}.
  */
 public final class StabilityBenchmark {

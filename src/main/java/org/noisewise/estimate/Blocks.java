@@ -54,8 +54,8 @@ public final class Blocks {
      * other with their lengths staggered so that element {@code j} of each lies at a different offset
      * within a 4 KB page. Arrays of equal power-of-two size allocated together would put element
      * {@code j} of every one at the same offset, and a kernel that reads one and stores another at
-     * the same index stalls on the processor's false store-to-load matches (4K aliasing): about a
-     * quarter of the time of the stability sums.
+     * the same index stalls on the processor's false store-to-load matches (4K aliasing): the
+     * stability sums of a 64 x 64 x 198-frame slice measured 8-15% faster with staggered arrays.
      */
     public static long[][] staggeredLongs(int count, int length) {
         long[][] out = new long[count][];

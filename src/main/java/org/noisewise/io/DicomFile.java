@@ -232,6 +232,18 @@ public final class DicomFile {
     public static DicomFile read(Path path, boolean withPixels) throws InputException {
         try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
             long size = ch.size();
+            if (size > PEEK) {
+                // a large file that is not DICOM (a TIFF beside the series) is told by its first bytes alone
+                ByteBuffer head = ByteBuffer.allocate(HEAD).order(ByteOrder.LITTLE_ENDIAN);
+                while (head.hasRemaining() && ch.read(head) >= 0) {
+                    // the first HEAD bytes
+                }
+                head.flip();
+                if (syntaxOf(head) == null) {
+                    return null;
+                }
+                ch.position(0);
+            }
             ByteBuffer b;
             if (size <= BUFFERED) {
                 byte[] buf = BUFFER.get();
@@ -254,13 +266,46 @@ public final class DicomFile {
         }
     }
 
+    /** Files larger than this are first told DICOM or not by their first {@value #HEAD} bytes. */
+    private static final int PEEK = 64 << 10;
+    private static final int HEAD = 132;
+    /** What {@link #syntaxOf} says of a file with the preamble: its transfer syntax is in the meta group. */
+    private static final String PREAMBLE = "preamble";
+
+    /**
+     * How a file starts (little-endian buffer from byte 0): {@link #PREAMBLE} for "DICM" at byte 128,
+     * else the transfer syntax its first element implies (a file without the preamble), or null when
+     * it is not DICOM.
+     */
+    private static String syntaxOf(ByteBuffer b) {
+        int n = b.limit();
+        if (n >= 132 && b.get(128) == 'D' && b.get(129) == 'I' && b.get(130) == 'C' && b.get(131) == 'M') {
+            return PREAMBLE;
+        }
+        if (n < 8) {
+            return null;
+        }
+        int g = b.getShort(0) & 0xffff;
+        if (g == 0x0800) {
+            return "1.2.840.10008.1.2.2";
+        }
+        if (g == 0x0008 || g == 0x0002) {
+            return Character.isUpperCase(b.get(4)) && Character.isUpperCase(b.get(5)) ? DicomWriter.EXPLICIT_LE
+                    : DicomWriter.IMPLICIT_LE;
+        }
+        return null;
+    }
+
     private static DicomFile parse(Path path, ByteBuffer b, boolean withPixels) throws InputException {
         b.order(ByteOrder.LITTLE_ENDIAN);
         int n = b.limit();
         int pos;
-        String syntax;
+        String syntax = syntaxOf(b);
+        if (syntax == null) {
+            return null;
+        }
         Map<Integer, Object> top = new HashMap<>();
-        if (n >= 132 && b.get(128) == 'D' && b.get(129) == 'I' && b.get(130) == 'C' && b.get(131) == 'M') {
+        if (PREAMBLE.equals(syntax)) {
             pos = 132;
             // the file meta group: always explicit VR little endian (PS3.10 7.1)
             Parser meta = new Parser(b, true, false, path);
@@ -271,18 +316,6 @@ public final class DicomFile {
             syntax = ts instanceof Value v ? v.text() : DicomWriter.EXPLICIT_LE;
         } else {
             pos = 0;
-            if (n < 8) {
-                return null;
-            }
-            int g = b.getShort(0) & 0xffff;
-            if (g == 0x0800) {
-                syntax = "1.2.840.10008.1.2.2";
-            } else if (g == 0x0008 || g == 0x0002) {
-                syntax = Character.isUpperCase(b.get(4)) && Character.isUpperCase(b.get(5)) ? DicomWriter.EXPLICIT_LE
-                        : DicomWriter.IMPLICIT_LE;
-            } else {
-                return null;
-            }
         }
         String compressed = FileChecks.COMPRESSED.get(syntax);
         if (compressed != null) {

@@ -256,8 +256,11 @@ class DicomSeriesTest {
         for (DicomSeriesWriter.File file : DicomSeriesWriter.singleFrame(ScannerSeries.spec("other", 2, 2, SEED, false))) {
             Files.write(f.resolve("other_" + file.name()), file.bytes());
         }
-        new ij.io.FileSaver(new ImagePlus("plain", new ij.process.FloatProcessor(8, 8))).saveAsTiff(
+        // a large TIFF (told not DICOM by its first bytes) and a large enhanced file (read whole)
+        new ij.io.FileSaver(new ImagePlus("plain", new ij.process.FloatProcessor(200, 200))).saveAsTiff(
                 f.resolve("b_plain.tif").toString());
+        Path enhanced = ScannerSeries.enhanced(ScannerSeries.spec("enh", 4, 3, SEED, true), f, "enh.dcm");
+        assertTrue(Files.size(f.resolve("b_plain.tif")) > 64 << 10 && Files.size(enhanced) > 64 << 10);
         Files.writeString(f.resolve("a_notes.txt"), "not an image");
         Files.createDirectories(f.resolve("c_sub"));
         Files.createSymbolicLink(f.resolve("d_gone.dcm"), f.resolve("no-such-file.dcm"));
@@ -268,7 +271,7 @@ class DicomSeriesTest {
             asked.add(p);
             return !p.equals(excluded);
         });
-        assertEquals(2, c.series().size(), "two series");
+        assertEquals(3, c.series().size(), "two folders' worth of single-frame files and one enhanced file");
         java.util.Set<Integer> sizes = new java.util.HashSet<>();
         for (DicomSeries.Series s : c.series()) {
             sizes.add(s.files().size());
@@ -276,7 +279,7 @@ class DicomSeriesTest {
                 assertTrue(p.getFileName().toString().endsWith(".dcm"), p.toString());
             }
         }
-        assertEquals(java.util.Set.of(6, 4), sizes, "2 x 3 and 2 x 2 files");
+        assertEquals(java.util.Set.of(6, 4, 1), sizes, "2 x 3 and 2 x 2 files, and the enhanced file");
         assertEquals(java.util.List.of(f.resolve("a_notes.txt"), f.resolve("b_plain.tif")), c.others(),
                 "the other regular files, by name; not the subfolder, the dangling link or the excluded file");
         assertEquals(1, asked.stream().filter(excluded::equals).count(), "the filter is asked once per entry");

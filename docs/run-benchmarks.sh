@@ -10,4 +10,6 @@ java -Xmx3g -cp "$CP" org.noisewise.bench.StabilityBenchmark
 java -Xmx3g -cp "$CP" org.noisewise.bench.AirFinderBenchmark
 mvn -B -q package -DskipTests
 java -Xmx3g -cp "$CP" org.noisewise.bench.LargeImageBenchmark target/noisewise.jar
+# the DICOM benchmark adds a pydicom + numpy contender when python3 has both
+# (Debian: apt-get install python3-pydicom python3-numpy); it says so when it leaves it out
 java -Xmx3g -cp "$CP" org.noisewise.bench.DicomSeriesBenchmark target/noisewise.jar

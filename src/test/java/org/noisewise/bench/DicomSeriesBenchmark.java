@@ -37,6 +37,10 @@ import org.noisewise.sample.Phantoms;
  * virtual machine counts once: {@code noisewise batch ROOT --method repeat --signal ...} against
  * ImageJ's route in one session (a macro importing and arranging each folder, optionally with the
  * maps).</li>
+ * <li>when a python3 with pydicom and numpy is found (Debian: {@code python3-pydicom},
+ * {@code python3-numpy}), the route a Python user takes: a script that reads every file with
+ * pydicom, places it by position and temporal position and makes the maps per slice with numpy
+ * ({@code pydicom_route.py} beside this class).</li>
  * </ul>
  *
  * Runs interleaved (A B C ... A B C) after one warm-up round, median of the per-round ratios. Then, in
@@ -173,7 +177,7 @@ public final class DicomSeriesBenchmark {
             System.out.printf(Locale.ROOT, "DICOM folder: %d files of %dx%d (%d slices x %d repeats), %.1f MB on disk, "
                     + "%.1f MB of pixel data; %d cores%n", Z * T, W, W, Z, T, bytes / 1e6, pixelBytes / 1e6,
                     Runtime.getRuntime().availableProcessors());
-            List<List<String>> contenders = List.of(
+            List<List<String>> contenders = new ArrayList<>(List.of(
                     List.of(java, "-jar", jar, "repeat", dir.toString(), "--signal", SIGNAL),
                     List.of(java, "-jar", jar, "stability", dir.toString()),
                     List.of(java, "-Djava.awt.headless=true", "-cp", cp, ImageJRoute.class.getName(), dir.toString()),
@@ -184,11 +188,29 @@ public final class DicomSeriesBenchmark {
                     concat(List.of(java, "-Djava.awt.headless=true", "-cp", cp, ImageJArchiveRoute.class.getName(),
                             "import"), weeks),
                     concat(List.of(java, "-Djava.awt.headless=true", "-cp", cp, ImageJArchiveRoute.class.getName(),
-                            "maps"), weeks));
-            String[] names = {"noisewise repeat", "noisewise stability", "ImageJ: import + hyperstack",
-                "ImageJ: import + hyperstack + maps per slice", "plain streaming pass",
-                "noisewise batch --method repeat, " + WEEKS + " series", "ImageJ: " + WEEKS + " series imported in one session",
-                "ImageJ: " + WEEKS + " series imported + maps, one session"};
+                            "maps"), weeks)));
+            List<String> names = new ArrayList<>(List.of("noisewise repeat", "noisewise stability",
+                    "ImageJ: import + hyperstack", "ImageJ: import + hyperstack + maps per slice", "plain streaming pass",
+                    "noisewise batch --method repeat, " + WEEKS + " series",
+                    "ImageJ: " + WEEKS + " series imported in one session",
+                    "ImageJ: " + WEEKS + " series imported + maps, one session"));
+            List<int[]> pairs = new ArrayList<>(List.of(new int[] {2, 0}, new int[] {3, 0}, new int[] {2, 1},
+                    new int[] {0, 4}, new int[] {1, 4}, new int[] {6, 5}, new int[] {7, 5}));
+            List<String> labels = new ArrayList<>(List.of("ImageJ import / noisewise repeat",
+                    "ImageJ import + maps / noisewise repeat", "ImageJ import / noisewise stability",
+                    "noisewise repeat / streaming pass", "noisewise stability / streaming pass",
+                    WEEKS + " series: ImageJ import / noisewise batch",
+                    WEEKS + " series: ImageJ import + maps / noisewise batch"));
+            String python = pythonWithPydicom();
+            if (python != null) {
+                contenders.add(List.of(python, pydicomScript().toString(), dir.toString(), "maps"));
+                names.add("pydicom + numpy script: read, arrange, maps");
+                pairs.add(new int[] {contenders.size() - 1, 0});
+                labels.add("pydicom + numpy script / noisewise repeat");
+            } else {
+                System.out.println("  (the pydicom + numpy contender is left out: no python3 with pydicom and numpy; "
+                        + "on Debian: apt-get install python3-pydicom python3-numpy)");
+            }
             int rounds = 5;
             double[][] t = new double[contenders.size()][rounds];
             for (List<String> c : contenders) {
@@ -200,21 +222,16 @@ public final class DicomSeriesBenchmark {
                 }
             }
             for (int c = 0; c < contenders.size(); c++) {
-                System.out.printf(Locale.ROOT, "  %-50s median %.2f s (whole process)%n", names[c], median(t[c]));
+                System.out.printf(Locale.ROOT, "  %-50s median %.2f s (whole process)%n", names.get(c), median(t[c]));
             }
-            String[][] pairs = {{"2", "0"}, {"3", "0"}, {"2", "1"}, {"0", "4"}, {"1", "4"}, {"6", "5"}, {"7", "5"}};
-            String[] labels = {"ImageJ import / noisewise repeat", "ImageJ import + maps / noisewise repeat",
-                "ImageJ import / noisewise stability", "noisewise repeat / streaming pass",
-                "noisewise stability / streaming pass", WEEKS + " series: ImageJ import / noisewise batch",
-                WEEKS + " series: ImageJ import + maps / noisewise batch"};
-            for (int i = 0; i < pairs.length; i++) {
-                int a = Integer.parseInt(pairs[i][0]);
-                int b = Integer.parseInt(pairs[i][1]);
+            for (int i = 0; i < pairs.size(); i++) {
+                int a = pairs.get(i)[0];
+                int b = pairs.get(i)[1];
                 double[] ratio = new double[rounds];
                 for (int r = 0; r < rounds; r++) {
                     ratio[r] = t[a][r] / t[b][r];
                 }
-                System.out.printf(Locale.ROOT, "  %-50s %.2fx (median of %d interleaved rounds)%n", labels[i],
+                System.out.printf(Locale.ROOT, "  %-50s %.2fx (median of %d interleaved rounds)%n", labels.get(i),
                         median(ratio), rounds);
             }
             memory(dir, pixelBytes);
@@ -233,6 +250,28 @@ public final class DicomSeriesBenchmark {
                 Files.deleteIfExists(p);
             }
         }
+    }
+
+    /** A python3 that imports pydicom and numpy (the system's first), or null. */
+    static String pythonWithPydicom() throws InterruptedException {
+        for (String python : new String[] {"/usr/bin/python3", "python3"}) {
+            try {
+                Process p = new ProcessBuilder(python, "-c", "import pydicom, numpy")
+                        .redirectOutput(ProcessBuilder.Redirect.DISCARD)
+                        .redirectError(ProcessBuilder.Redirect.DISCARD).start();
+                if (p.waitFor() == 0) {
+                    return python;
+                }
+            } catch (IOException e) {
+                // not installed there
+            }
+        }
+        return null;
+    }
+
+    /** The pydicom + numpy route's script, as built into the test classes. */
+    static Path pydicomScript() throws java.net.URISyntaxException {
+        return Path.of(DicomSeriesBenchmark.class.getResource("pydicom_route.py").toURI());
     }
 
     private static List<String> concat(List<String> a, List<String> b) {

@@ -233,42 +233,58 @@ public final class DicomFile {
         try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
             long size = ch.size();
             if (size > PEEK) {
-                // a large file that is not DICOM (a TIFF beside the series) is told by its first bytes alone
-                ByteBuffer head = ByteBuffer.allocate(HEAD).order(ByteOrder.LITTLE_ENDIAN);
-                while (head.hasRemaining() && ch.read(head) >= 0) {
-                    // the first HEAD bytes
-                }
-                head.flip();
+                // the first PEEK bytes tell a large file that is not DICOM (a TIFF beside the series), and hold
+                // the whole header of most single-frame files: a header-only read ends there when they do
+                ByteBuffer head = readFully(ch, PEEK);
                 if (syntaxOf(head) == null) {
                     return null;
                 }
+                if (!withPixels) {
+                    try {
+                        return parse(path, head, false, true);
+                    } catch (InputException | Incomplete e) {
+                        // the header goes on past these bytes (or is damaged): read the whole file below
+                    }
+                }
                 ch.position(0);
             }
-            ByteBuffer b;
-            if (size <= BUFFERED) {
-                byte[] buf = BUFFER.get();
-                if (buf.length < size) {
-                    buf = new byte[(int) Math.max(size, buf.length * 2L)];
-                    BUFFER.set(buf);
-                }
-                ByteBuffer w = ByteBuffer.wrap(buf, 0, (int) size);
-                while (w.hasRemaining() && ch.read(w) >= 0) {
-                    // read the whole file
-                }
-                b = ByteBuffer.wrap(buf, 0, (int) size).slice();
-            } else {
-                b = ch.map(FileChannel.MapMode.READ_ONLY, 0, size);
-            }
-            return parse(path, b, withPixels);
+            ByteBuffer b = size <= BUFFERED ? readFully(ch, (int) size) : ch.map(FileChannel.MapMode.READ_ONLY, 0, size);
+            return parse(path, b, withPixels, false);
         } catch (IOException e) {
             throw new InputException("cannot read '" + path + "': " + e.getMessage() + "; check that it exists and "
                     + "can be read");
         }
     }
 
-    /** Files larger than this are first told DICOM or not by their first {@value #HEAD} bytes. */
+    /** The next {@code length} bytes of {@code ch} (fewer at its end), in this thread's buffer. */
+    private static ByteBuffer readFully(FileChannel ch, int length) throws IOException {
+        byte[] buf = BUFFER.get();
+        if (buf.length < length) {
+            buf = new byte[(int) Math.max(length, buf.length * 2L)];
+            BUFFER.set(buf);
+        }
+        ByteBuffer w = ByteBuffer.wrap(buf, 0, length);
+        while (w.hasRemaining() && ch.read(w) >= 0) {
+            // until full or at the end of the file
+        }
+        return ByteBuffer.wrap(buf, 0, w.position()).slice();
+    }
+
+    /**
+     * Files larger than this are first read this far: enough to tell whether they are DICOM and, for a
+     * header-only read, usually to reach the pixel data.
+     */
     private static final int PEEK = 64 << 10;
-    private static final int HEAD = 132;
+
+    /** A header-only parse of a file's first bytes that ended before the pixel data (no stack trace). */
+    private static final class Incomplete extends RuntimeException {
+        private static final long serialVersionUID = 1L;
+        static final Incomplete INSTANCE = new Incomplete();
+
+        private Incomplete() {
+            super(null, null, false, false);
+        }
+    }
     /** What {@link #syntaxOf} says of a file with the preamble: its transfer syntax is in the meta group. */
     private static final String PREAMBLE = "preamble";
 
@@ -296,7 +312,12 @@ public final class DicomFile {
         return null;
     }
 
-    private static DicomFile parse(Path path, ByteBuffer b, boolean withPixels) throws InputException {
+    /**
+     * Parses a file's bytes; with {@code prefix}, {@code b} holds only the file's first bytes, and a header
+     * that does not reach the pixel data within them throws {@link Incomplete}.
+     */
+    private static DicomFile parse(Path path, ByteBuffer b, boolean withPixels, boolean prefix)
+            throws InputException {
         b.order(ByteOrder.LITTLE_ENDIAN);
         int n = b.limit();
         int pos;
@@ -341,6 +362,9 @@ public final class DicomFile {
                 break;
             }
             pos = p.element(pos, top, 0);
+        }
+        if (prefix && pixelOffset < 0) {
+            throw Incomplete.INSTANCE;
         }
         List<Frame> frames = frameFacts(top);
         List<Object> pixels = null;

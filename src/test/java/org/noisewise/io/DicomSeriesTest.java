@@ -287,6 +287,70 @@ class DicomSeriesTest {
         assertEquals(c.series(), DicomSeries.find(f));
     }
 
+    /** What a header-only read must give: the same header as reading the whole file. */
+    private static void assertSameHeader(DicomFile whole, DicomFile header) {
+        assertNotNull(header);
+        assertTrue(whole.hasPixels() && !header.hasPixels());
+        assertEquals(whole.seriesUid(), header.seriesUid());
+        assertEquals(whole.sopInstance(), header.sopInstance());
+        assertEquals(whole.instance(), header.instance());
+        assertEquals(whole.temporal(), header.temporal());
+        assertEquals(whole.rows(), header.rows());
+        assertEquals(whole.columns(), header.columns());
+        assertEquals(whole.frames().size(), header.frames().size());
+        for (int i = 0; i < whole.frames().size(); i++) {
+            DicomFile.Frame a = whole.frames().get(i);
+            DicomFile.Frame b = header.frames().get(i);
+            assertArrayEquals(a.position(), b.position(), "frame " + i);
+            assertEquals(a.temporalIndex(), b.temporalIndex(), "frame " + i);
+            assertEquals(a.slope(), b.slope(), "frame " + i);
+        }
+    }
+
+    /**
+     * A header-only read of a large file (what batch's scan does) reads only its first bytes when the
+     * header ends within them, and the whole file when it does not (an enhanced file's per-frame groups);
+     * either way the header is the one the whole file gives, and a file cut inside its header is still
+     * refused as damaged.
+     */
+    @Test
+    void headerOnlyReadsOfLargeFilesGiveTheWholeFilesHeader() throws Exception {
+        // single-frame 256 x 256 files (128 KB each): the header ends in the first 64 KB
+        DicomSeriesWriter.Spec big = new DicomSeriesWriter.Spec("large", 256, 256, 1, 2);
+        for (int t = 0; t < 2; t++) {
+            big.image(0, t, new short[256 * 256], 1, 0);
+        }
+        Path f = dir.resolve("large.dcm");
+        Files.write(f, DicomSeriesWriter.singleFrame(big).get(1).bytes());
+        assertTrue(Files.size(f) > 64 << 10);
+        assertSameHeader(DicomFile.read(f, true), DicomFile.read(f, false));
+        // an enhanced file of 400 frames: its per-frame groups run past the first 64 KB, in a sequence of
+        // defined length (cut off inside an element) and of undefined length (items that simply stop)
+        Path undefined = ScannerSeries.enhanced(ScannerSeries.spec("items", 20, 20, SEED, true)
+                .transferSyntax(DicomWriter.EXPLICIT_LE, true), dir, "items.dcm");
+        assertSameHeader(DicomFile.read(undefined, true), DicomFile.read(undefined, false));
+        DicomSeriesWriter.Spec many = ScannerSeries.spec("many", 20, 20, SEED, true);
+        Path e = ScannerSeries.enhanced(many, dir, "many.dcm");
+        byte[] bytes = Files.readAllBytes(e);
+        int pixelTag = -1;
+        for (int i = 0; i + 3 < bytes.length && pixelTag < 0; i++) {
+            if ((bytes[i] & 0xff) == 0xe0 && (bytes[i + 1] & 0xff) == 0x7f && bytes[i + 2] == 0x10 && bytes[i + 3] == 0) {
+                pixelTag = i;
+            }
+        }
+        assertTrue(pixelTag > 64 << 10, "the header is longer than the first read: " + pixelTag);
+        assertSameHeader(DicomFile.read(e, true), DicomFile.read(e, false));
+        assertEquals(400, DicomFile.read(e, false).frames().size());
+        // cut inside the header, past the first 64 KB: damaged, whichever read
+        Path cut = dir.resolve("cut.dcm");
+        Files.write(cut, java.util.Arrays.copyOf(bytes, pixelTag - 1001));
+        assertTrue(Files.size(cut) > 64 << 10);
+        for (boolean pixels : new boolean[] {true, false}) {
+            InputException x = assertThrows(InputException.class, () -> DicomFile.read(cut, pixels));
+            assertTrue(x.getMessage().contains("truncated or damaged"), x.getMessage());
+        }
+    }
+
     /** A plain TIFF stack without dimensions keeps today's rule: its slices are repeats of one slice. */
     @Test
     void aPlainTiffStackKeepsTheOldRule() throws Exception {

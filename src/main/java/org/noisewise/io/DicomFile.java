@@ -232,19 +232,17 @@ public final class DicomFile {
     public static DicomFile read(Path path, boolean withPixels) throws InputException {
         try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
             long size = ch.size();
-            if (size > PEEK) {
-                // the first PEEK bytes tell a large file that is not DICOM (a TIFF beside the series), and hold
-                // the whole header of most single-frame files: a header-only read ends there when they do
+            if (size > PEEK && !withPixels) {
+                // a header-only read of a large file: its first PEEK bytes tell one that is not DICOM (a TIFF
+                // beside the series), and hold the whole header of most single-frame files
                 ByteBuffer head = readFully(ch, PEEK);
                 if (syntaxOf(head) == null) {
                     return null;
                 }
-                if (!withPixels) {
-                    try {
-                        return parse(path, head, false, true);
-                    } catch (InputException | Incomplete e) {
-                        // the header goes on past these bytes (or is damaged): read the whole file below
-                    }
+                try {
+                    return parse(path, head, false, true);
+                } catch (InputException | Incomplete e) {
+                    // the header goes on past these bytes (or is damaged): read the whole file below
                 }
                 ch.position(0);
             }
@@ -271,8 +269,8 @@ public final class DicomFile {
     }
 
     /**
-     * Files larger than this are first read this far: enough to tell whether they are DICOM and, for a
-     * header-only read, usually to reach the pixel data.
+     * A header-only read of a larger file first reads this far: enough to tell whether it is DICOM and,
+     * usually, to reach the pixel data.
      */
     private static final int PEEK = 64 << 10;
 

@@ -36,11 +36,42 @@ public class NoisewiseCli implements Runnable {
 
     public static void main(String[] args) {
         System.setProperty("java.awt.headless", "true");
-        System.exit(execute(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true)));
+        int status;
+        try {
+            status = execute(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true));
+        } catch (OutOfMemoryError e) {
+            // the heap was still full when the error was to be reported: the words made in advance
+            System.err.println(OUT_OF_MEMORY);
+            status = EXIT_INPUT;
+        }
+        System.exit(status);
     }
+
+    /**
+     * Memory set aside while a command runs and let go when the heap runs out, so that the message
+     * saying so can be made and printed even if the heap is still full at that moment.
+     */
+    private static volatile byte[] reserve;
 
     /** Runs one command line with the given streams; returns the exit status. */
     public static int execute(String[] args, PrintWriter out, PrintWriter err) {
+        // the words for a full heap are made while there is memory to make them
+        String full = outOfMemoryText();
+        reserve = new byte[1 << 20];
+        try {
+            return run(args, out, err);
+        } catch (OutOfMemoryError e) {
+            // reported here, where the command and all it read are no longer referenced and can be collected
+            reserve = null;
+            err.println(full);
+            err.flush();
+            return EXIT_INPUT;
+        } finally {
+            reserve = null;
+        }
+    }
+
+    private static int run(String[] args, PrintWriter out, PrintWriter err) {
         CommandLine cl = new CommandLine(new NoisewiseCli());
         // a command line naming one command sets up only that one (a faster start); otherwise all of them
         Class<?> named = null;
@@ -60,8 +91,8 @@ public class NoisewiseCli implements Runnable {
         cl.setOut(out);
         cl.setErr(err);
         cl.setExecutionExceptionHandler((ex, commandLine, parseResult) -> {
-            if (ex.getCause() instanceof OutOfMemoryError) {
-                return outOfMemory(err);
+            if (ex.getCause() instanceof OutOfMemoryError full) {
+                throw full; // reported by execute, once the command's data can be collected
             }
             if (ex instanceof InputException ie) {
                 err.println("noisewise: error: " + text(ie));
@@ -78,11 +109,7 @@ public class NoisewiseCli implements Runnable {
             err.flush();
             return CommandLine.ExitCode.USAGE;
         });
-        try {
-            return cl.execute(args);
-        } catch (OutOfMemoryError e) {
-            return outOfMemory(err);
-        }
+        return cl.execute(args);
     }
 
     /** An input error's message with its remedy in the command line's words. */
@@ -91,11 +118,13 @@ public class NoisewiseCli implements Runnable {
                 : e.getMessage();
     }
 
-    /** One line for a full heap (what to do: more heap, or less data at once); exit status 3. */
-    static int outOfMemory(PrintWriter err) {
-        err.println("noisewise: error: out of memory (" + Memory.heapText() + "): give Java more, e.g. "
-                + "java -Xmx8g -jar noisewise.jar ..., or measure less at once (--slice N, a cropped image)");
-        err.flush();
-        return EXIT_INPUT;
+    /** What to do about a full heap, made before it is needed (reporting it may find the heap still full). */
+    static final String OUT_OF_MEMORY = "noisewise: error: out of memory: give Java more, e.g. java -Xmx8g -jar "
+            + "noisewise.jar ..., or measure less at once (--slice N, a cropped image)";
+
+    /** One line for a full heap: what to do (more heap, or less data at once). */
+    static String outOfMemoryText() {
+        return "noisewise: error: out of memory (" + Memory.heapText() + "): give Java more, e.g. "
+                + "java -Xmx8g -jar noisewise.jar ..., or measure less at once (--slice N, a cropped image)";
     }
 }

@@ -6,10 +6,10 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.SplittableRandom;
-import java.util.stream.IntStream;
 import org.apache.commons.math3.distribution.NakagamiDistribution;
 import org.noisewise.estimate.BackgroundNoise;
 import org.noisewise.estimate.BackgroundSigma;
+import org.noisewise.estimate.Blocks;
 import org.noisewise.estimate.Levels;
 import org.noisewise.estimate.SampleStats;
 import org.noisewise.estimate.SigmaEstimate;
@@ -252,15 +252,19 @@ public final class BackgroundCheck {
             for (int b = 0; b < batch; b++) {
                 streams[b] = master.split();
             }
-            int[] exceed = IntStream.range(0, batch).parallel().mapToObj(b -> {
+            boolean[] ksOver = new boolean[batch];
+            boolean[] disOver = new boolean[batch];
+            Blocks.tasks(batch, b -> {
                 double[] sim = simulate(streams[b], simulated, sigma, channels, storage);
                 Arrays.sort(sim);
                 Map<SigmaEstimator, Double> e = BackgroundSigma.sigmas(sim, channels, storage.step());
-                return new int[] {ksDistance(sim, channels, e.get(SigmaEstimator.ML)) >= ks ? 1 : 0,
-                        disagreement(e) >= dis ? 1 : 0};
-            }).reduce(new int[2], (x, y) -> new int[] {x[0] + y[0], x[1] + y[1]});
-            ksExceed += exceed[0];
-            disExceed += exceed[1];
+                ksOver[b] = ksDistance(sim, channels, e.get(SigmaEstimator.ML)) >= ks;
+                disOver[b] = disagreement(e) >= dis;
+            });
+            for (int b = 0; b < batch; b++) {
+                ksExceed += ksOver[b] ? 1 : 0;
+                disExceed += disOver[b] ? 1 : 0;
+            }
             done += batch;
         }
         boolean complete = done >= BOOTSTRAP;

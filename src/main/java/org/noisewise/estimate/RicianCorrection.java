@@ -132,7 +132,7 @@ public final class RicianCorrection {
     private static void local(float[] px, int width, int height, double floor, int r, float[] out) {
         int bands = Math.max(1, Math.min(height, Runtime.getRuntime().availableProcessors() * 4));
         int per = (height + bands - 1) / bands;
-        java.util.stream.IntStream.range(0, bands).parallel().forEach(b -> {
+        Blocks.tasks(bands, b -> {
             int y0 = b * per;
             int y1 = Math.min(height, y0 + per);
             if (y0 >= y1) {

@@ -136,13 +136,18 @@ public final class DicomSeries {
             throw new InputException("folder '" + folder + "' holds no DICOM files: give an image file or a folder of "
                     + "one DICOM series");
         }
-        // ImageJ's header text of the first file (its Info) is read while the files are parsed
-        java.util.concurrent.CompletableFuture<String> info = java.util.concurrent.CompletableFuture.supplyAsync(
-                () -> headerText(all.get(0)));
         DicomFile[] files = new DicomFile[all.size()];
         InputException[] failed = new InputException[all.size()];
         boolean[] dicom = new boolean[all.size()];
-        Blocks.tasks(all.size(), i -> {
+        // task 0 makes ImageJ's header text of the first file (its Info) while the others parse the files;
+        // one of the same tasks, so that its failure (a full heap) is reported like theirs
+        String[] info = new String[1];
+        Blocks.tasks(all.size() + 1, task -> {
+            if (task == 0) {
+                info[0] = headerText(all.get(0));
+                return;
+            }
+            int i = task - 1;
             try {
                 files[i] = DicomFile.read(all.get(i), true);
                 dicom[i] = files[i] != null || isDicom(all.get(i));
@@ -182,7 +187,7 @@ public final class DicomSeries {
             }
             read.add(files[i]);
         }
-        String text = members.get(0) == 0 ? info.join() : headerText(read.get(0).path());
+        String text = members.get(0) == 0 ? info[0] : headerText(read.get(0).path());
         return assemble(read.toArray(new DicomFile[0]), title, echo, echoHint, text);
     }
 

@@ -155,6 +155,51 @@ class BadInputCliTest {
         assertEquals(1, all.lines().count(), all);
     }
 
+    /**
+     * A full heap while a DICOM series is read and measured on both cores is the same one line and exit 3,
+     * never a wait for ever: a worker ended by the full heap once left the command waiting for its share
+     * (a real child JVM per command, 52 MB of pixel data in a 24 MB heap).
+     */
+    @Test
+    void outOfMemoryOnADicomSeriesIsOneClearLineNotAHang() throws Exception {
+        Path series = Files.createDirectories(dir.resolve("large-series"));
+        org.noisewise.io.DicomSeriesWriter.Spec spec = new org.noisewise.io.DicomSeriesWriter.Spec("large", 128, 128,
+                4, 400);
+        java.util.SplittableRandom rng = new java.util.SplittableRandom(10);
+        for (int z = 0; z < 4; z++) {
+            for (int t = 0; t < 400; t++) {
+                short[] px = new short[128 * 128];
+                for (int i = 0; i < px.length; i++) {
+                    px[i] = (short) (500 + rng.nextInt(50));
+                }
+                spec.image(z, t, px, 1, 0);
+            }
+        }
+        for (org.noisewise.io.DicomSeriesWriter.File f : org.noisewise.io.DicomSeriesWriter.singleFrame(spec)) {
+            Files.write(series.resolve(f.name()), f.bytes());
+        }
+        String jvm = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        for (List<String> command : List.of(List.of("repeat", series.toString(), "--signal", "40,40,20,20"),
+                List.of("stability", series.toString()))) {
+            List<String> cmd = new java.util.ArrayList<>(List.of(jvm, "-Xmx24m", "-cp",
+                    System.getProperty("java.class.path"), NoisewiseCli.class.getName()));
+            cmd.addAll(command);
+            Path log = dir.resolve("oom-" + command.get(0) + ".txt");
+            Process p = new ProcessBuilder(cmd).redirectErrorStream(true).redirectOutput(log.toFile()).start();
+            boolean ended = p.waitFor(90, java.util.concurrent.TimeUnit.SECONDS);
+            if (!ended) {
+                p.destroyForcibly();
+            }
+            String all = Files.readString(log).strip();
+            assertTrue(ended, command.get(0) + " still running after 90 s with a full heap: " + all);
+            assertEquals(3, p.exitValue(), all);
+            List<String> lines = all.lines().filter(l -> !l.startsWith(command.get(0) + ": note:")).toList();
+            assertEquals(1, lines.size(), all);
+            assertTrue(lines.get(0).startsWith("noisewise: error: out of memory (the Java heap is at most "), all);
+            assertFalse(all.contains("Exception") || all.contains("\tat "), all);
+        }
+    }
+
     /** Issue 10: --progress reports on stderr from the reading of the file to the end, for every measuring command. */
     @Test
     void progressOnRequest() {

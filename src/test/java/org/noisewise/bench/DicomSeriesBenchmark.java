@@ -45,8 +45,9 @@ import org.noisewise.sample.Phantoms;
  *
  * Runs interleaved (A B C ... A B C) after one warm-up round, median of the per-round ratios. Then, in
  * this process, the bytes allocated while Noisewise reads the folder and the heap it keeps, each
- * against the pixel data. Targets: at least 3x faster than ImageJ's route; memory at most twice the
- * pixel data. Argument: the application jar. Run: {@code docs/run-benchmarks.sh}.
+ * against the pixel data, and the smallest heap with which each whole command completes. Targets: at
+ * least 3x faster than ImageJ's route; memory at most twice the pixel data. Argument: the application
+ * jar. Run: {@code docs/run-benchmarks.sh}.
  */
 public final class DicomSeriesBenchmark {
 
@@ -235,6 +236,13 @@ public final class DicomSeriesBenchmark {
                         median(ratio), rounds);
             }
             memory(dir, pixelBytes);
+            for (int c = 0; c < 2; c++) {
+                List<String> cmd = contenders.get(c);
+                int mb = smallestHeap(cmd, pixelBytes);
+                System.out.printf(Locale.ROOT, "  %-50s %s%n", names.get(c) + ": smallest heap that completes",
+                        mb < 0 ? "more than twice the pixel data" : String.format(Locale.ROOT, "%d MB, %.2fx the pixel "
+                                + "data (target at most 2x; steps of 5 MB)", mb, mb * 1e6 / pixelBytes));
+            }
         } finally {
             delete(dir);
             delete(archive);
@@ -278,6 +286,25 @@ public final class DicomSeriesBenchmark {
         List<String> out = new ArrayList<>(a);
         out.addAll(b);
         return out;
+    }
+
+    /**
+     * The smallest Java heap (-Xmx, in steps of 5 MB, from half the pixel data up to twice it) with which
+     * the whole command completes, or -1 when even twice the pixel data is not enough.
+     */
+    static int smallestHeap(List<String> cmd, double pixelBytes) throws IOException, InterruptedException {
+        int most = (int) Math.floor(2 * pixelBytes / 1e6);
+        for (int mb = (int) Math.ceil(pixelBytes / 2e6 / 5) * 5; mb <= most; mb += 5) {
+            List<String> withHeap = new ArrayList<>(cmd);
+            withHeap.add(1, "-Xmx" + mb + "m");
+            ProcessBuilder pb = new ProcessBuilder(withHeap);
+            pb.redirectOutput(ProcessBuilder.Redirect.DISCARD);
+            pb.redirectError(ProcessBuilder.Redirect.DISCARD);
+            if (pb.start().waitFor() == 0) {
+                return mb;
+            }
+        }
+        return -1;
     }
 
     /** Bytes allocated by every thread while the folder is read, and the heap kept afterwards, per pixel byte. */

@@ -283,6 +283,7 @@ public final class DicomFile {
             super(null, null, false, false);
         }
     }
+
     /** What {@link #syntaxOf} says of a file with the preamble: its transfer syntax is in the meta group. */
     private static final String PREAMBLE = "preamble";
 
@@ -299,7 +300,8 @@ public final class DicomFile {
         if (n < 8) {
             return null;
         }
-        int g = b.getShort(0) & 0xffff;
+        // the first element's group read as little endian, whatever order the buffer was given in
+        int g = (b.get(0) & 0xff) | (b.get(1) & 0xff) << 8;
         if (g == 0x0800) {
             return "1.2.840.10008.1.2.2";
         }

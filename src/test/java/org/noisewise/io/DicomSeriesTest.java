@@ -324,6 +324,11 @@ class DicomSeriesTest {
         Files.write(f, DicomSeriesWriter.singleFrame(big).get(1).bytes());
         assertTrue(Files.size(f) > 64 << 10);
         assertSameHeader(DicomFile.read(f, true), DicomFile.read(f, false));
+        // the same file without the 128-byte preamble and "DICM" (it starts with the meta group, 0002)
+        Path bare = dir.resolve("large-bare.dcm");
+        byte[] whole = Files.readAllBytes(f);
+        Files.write(bare, java.util.Arrays.copyOfRange(whole, 132, whole.length));
+        assertSameHeader(DicomFile.read(bare, true), DicomFile.read(bare, false));
         // an enhanced file of 400 frames: its per-frame groups run past the first 64 KB, in a sequence of
         // defined length (cut off inside an element) and of undefined length (items that simply stop)
         Path undefined = ScannerSeries.enhanced(ScannerSeries.spec("items", 20, 20, SEED, true)

@@ -118,13 +118,15 @@ public class NoisewiseCli implements Runnable {
                 : e.getMessage();
     }
 
-    /** What to do about a full heap, made before it is needed (reporting it may find the heap still full). */
-    static final String OUT_OF_MEMORY = "noisewise: error: out of memory: give Java more, e.g. java -Xmx8g -jar "
-            + "noisewise.jar ..., or measure less at once (--slice N, a cropped image)";
+    /** What to do about a full heap: more heap, or less data at once. */
+    private static final String MORE_MEMORY = "give Java more, e.g. java -Xmx8g -jar noisewise.jar ..., or measure "
+            + "less at once (--slice N, a cropped image)";
 
-    /** One line for a full heap: what to do (more heap, or less data at once). */
+    /** The line for a full heap without the heap's size, a constant (reporting may find the heap still full). */
+    static final String OUT_OF_MEMORY = "noisewise: error: out of memory: " + MORE_MEMORY;
+
+    /** One line for a full heap, with the heap's size. */
     static String outOfMemoryText() {
-        return "noisewise: error: out of memory (" + Memory.heapText() + "): give Java more, e.g. "
-                + "java -Xmx8g -jar noisewise.jar ..., or measure less at once (--slice N, a cropped image)";
+        return "noisewise: error: out of memory (" + Memory.heapText() + "): " + MORE_MEMORY;
     }
 }

@@ -11,7 +11,8 @@ import org.noisewise.io.Arrangement;
  * {@code Plugins>Noisewise>Arrange Series...}: shows how Noisewise reads a stack that ImageJ opened
  * from DICOM (File > Import > Image Sequence of a series folder, or an enhanced multi-frame file): a
  * new hyperstack of its z slices and repeats, arranged from the headers as the measuring commands
- * arrange it, with one echo of a multi-echo series. The original stack is not changed; the new image
+ * arrange it, with one echo of a multi-echo series; Siemens mosaics (a stack of them, or one) are cut
+ * into their slices, which the measuring commands leave to this command. The original stack is not changed; the new image
  * holds copies of its planes, with each image's rescale applied when they differ.
  *
  * <p>Macro keys: {@code echo} (1 for the first echo; 0 when the series holds one echo).
@@ -24,7 +25,7 @@ public class ArrangeSeriesCommand implements PlugIn {
     public void run(String arg) {
         Errors.guard(TITLE, imp -> {
             Face.checkImage(imp, TITLE);
-            if (imp.getStackSize() < 2) {
+            if (imp.getStackSize() < 2 && Arrangement.of(imp, null, Face.ECHO_HINT_ARRANGE, null) == imp) {
                 throw new InputException("'" + imp.getTitle() + "' is a single image: there is no series to arrange.");
             }
             GenericDialog gd = new GenericDialog(TITLE);
@@ -46,7 +47,7 @@ public class ArrangeSeriesCommand implements PlugIn {
 
     /** The arranged series as a new image (copies of the planes); never modifies {@code imp}. */
     public static ImagePlus process(ImagePlus imp, Integer echo) throws InputException {
-        ImagePlus view = Arrangement.of(imp, echo, Face.ECHO_HINT_ARRANGE);
+        ImagePlus view = Arrangement.of(imp, echo, Face.ECHO_HINT_ARRANGE, null);
         if (view == imp) {
             throw new InputException("'" + imp.getTitle() + "' holds no DICOM headers that place its images (no "
                     + "Image Position in its slice labels, not an enhanced DICOM file), or it is a hyperstack already: "

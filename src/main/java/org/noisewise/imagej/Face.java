@@ -35,6 +35,9 @@ final class Face {
     /** How a Fiji user measures one echo of a multi-echo series. */
     static final String ECHO_HINT = "make a stack of one echo with Plugins > Noisewise > Arrange Series... (choose "
             + "the echo), then measure that stack";
+    /** What a Fiji user does with a stack of Siemens mosaics before measuring. */
+    static final String MOSAIC_HINT = "cut it into its slices with Plugins > Noisewise > Arrange Series..., draw the "
+            + "regions on the new image and measure that";
     /** The same, inside Arrange Series itself. */
     static final String ECHO_HINT_ARRANGE = "choose one in the Echo field";
 
@@ -47,7 +50,7 @@ final class Face {
      * pixels; otherwise the image itself. The user's image is not changed.
      */
     static ImagePlus series(ImagePlus imp) throws InputException {
-        return Arrangement.of(imp, null, ECHO_HINT);
+        return Arrangement.of(imp, null, ECHO_HINT, MOSAIC_HINT);
     }
 
     /** The z slice the user is looking at, in the series made from {@code imp}. */

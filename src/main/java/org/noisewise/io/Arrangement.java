@@ -54,10 +54,22 @@ public final class Arrangement {
      *
      * @param echo     the echo to keep (1-based) when the series holds several, or null
      * @param echoHint what the user does to choose an echo, in the face's words
+     * @param mosaicHint what the user does with a stack of Siemens mosaics (each image the tiled slices of one
+     *                   volume), in the face's words; null to cut them into their slices (copies) instead, since
+     *                   regions drawn on a mosaic cannot be placed on its slices
      */
-    public static ImagePlus of(ImagePlus imp, Integer echo, String echoHint) throws InputException {
-        if (known(imp) || imp.getNFrames() > 1 || imp.getNChannels() > 1 || imp.getStackSize() < 2) {
+    public static ImagePlus of(ImagePlus imp, Integer echo, String echoHint, String mosaicHint) throws InputException {
+        if (known(imp) || imp.getNFrames() > 1 || imp.getNChannels() > 1) {
             return imp;
+        }
+        if (imp.getStackSize() < 2) {
+            // one image: only a Siemens mosaic (one volume's slices, its header in the image's Info) has a layout
+            FileInfo fi = imp.getOriginalFileInfo();
+            String info = imp.getInfoProperty();
+            if (fi == null || fi.fileName == null || info == null || !mosaicType(value(info, "0008,0008"))) {
+                return imp;
+            }
+            return mosaics(imp, new String[] {fi.fileName + "\n" + info}, echo, echoHint, mosaicHint);
         }
         ImageStack stack = imp.getStack();
         int n = stack.getSize();
@@ -69,6 +81,9 @@ public final class Arrangement {
             headers[i - 1] = labelled ? label : null;
         }
         if (labelled) {
+            if (mosaicType(value(headers[0], "0008,0008"))) {
+                return mosaics(imp, headers, echo, echoHint, mosaicHint);
+            }
             return fromLabels(imp, headers, echo, echoHint);
         }
         DicomFile file = enhancedSource(imp);
@@ -135,6 +150,106 @@ public final class Arrangement {
                 integer(value(h0, "0020,0105")));
         String info = h0.substring(h0.indexOf('\n') + 1);
         return view(imp, layout, slope, intercept, signed, info, "the DICOM headers in its slice labels");
+    }
+
+    // ---- Image Sequence stacks of Siemens mosaics ----------------------------------------------------------------
+
+    private static boolean mosaicType(String imageType) {
+        return imageType != null && java.util.Arrays.stream(imageType.split("\\\\"))
+                .anyMatch(v -> v.trim().equals("MOSAIC"));
+    }
+
+    /** A stack (or one image) of Siemens mosaics: cut, refused with the hint, or read plain when it cannot be one. */
+    private static ImagePlus mosaics(ImagePlus imp, String[] headers, Integer echo, String echoHint, String mosaicHint)
+            throws InputException {
+        Integer slices = mosaicSlices(imp, headers[0]);
+        Mosaic m = Mosaic.of(slices, imp.getWidth(), imp.getHeight(), headers[0].substring(0, headers[0].indexOf('\n'))
+                .trim());
+        if (m == null) {
+            if (imp.getStackSize() < 2) {
+                return imp;
+            }
+            ImagePlus plain = fromLabels(imp, headers, echo, echoHint);
+            mark(plain, note(plain) + "; " + Mosaic.notCut(slices, imp.getWidth(), imp.getHeight()));
+            return plain;
+        }
+        if (mosaicHint != null) {
+            throw new InputException("'" + imp.getTitle() + "' " + (imp.getStackSize() > 1 ? "is a stack of Siemens "
+                    + "mosaics (each image tiles " : "is a Siemens mosaic (it tiles ") + m.slices() + " slices of "
+                    + m.tileWidth() + " x " + m.tileHeight() + ", Image Type MOSAIC): regions drawn on it and "
+                    + "measurements of it would mix slices; " + mosaicHint);
+        }
+        return fromMosaics(imp, headers, m, echo, echoHint);
+    }
+
+    /**
+     * The mosaic form of a stack's images. ImageJ's header text does not show the private Number of
+     * Images in Mosaic (0019,100A) as a number, so it is read from the first image's file.
+     */
+    /** The Number of Images in Mosaic of the file a slice label's header came from. */
+    private static Integer mosaicSlices(ImagePlus imp, String header) throws InputException {
+        String name = header.substring(0, header.indexOf('\n')).trim();
+        FileInfo fi = imp.getOriginalFileInfo();
+        DicomFile f = null;
+        if (fi != null && fi.directory != null) {
+            Path p = Path.of(fi.directory, name);
+            if (Files.isRegularFile(p)) {
+                f = DicomFile.read(p, false);
+            }
+        }
+        if (f == null) {
+            throw new InputException("'" + imp.getTitle() + "' is a stack of Siemens mosaics (Image Type MOSAIC), but "
+                    + "the file '" + name + "' it was opened from cannot be read again to learn how many slices each "
+                    + "mosaic tiles (0019,100A): open the series folder again with File > Import > Image Sequence");
+        }
+        return f.mosaicSlices();
+    }
+
+    /** Cuts each mosaic of the stack into its slices (copies), then arranges them as the headers say. */
+    private static ImagePlus fromMosaics(ImagePlus imp, String[] headers, Mosaic m, Integer echo, String echoHint)
+            throws InputException {
+        int n = headers.length;
+        int tiles = n * m.slices();
+        ImageStack src = imp.getStack();
+        ImageStack cut = new ImageStack(m.tileWidth(), m.tileHeight());
+        List<SeriesLayout.Item> items = new ArrayList<>();
+        double[] slope = new double[tiles];
+        double[] intercept = new double[tiles];
+        boolean[] signed = new boolean[tiles];
+        String h0 = headers[0];
+        Double thickness = number(value(h0, "0018,0050"));
+        Double between = number(value(h0, "0018,0088"));
+        double step = between != null && between > 0 ? between : thickness != null && thickness > 0 ? thickness : 1.0;
+        for (int i = 0; i < n; i++) {
+            String h = headers[i];
+            String name = h.substring(0, h.indexOf('\n')).trim();
+            double[] orientation = numbers(value(h, "0020,0037"), 6);
+            orientation = orientation != null ? orientation : new double[] {1, 0, 0, 0, 1, 0};
+            double[] at = numbers(value(h, "0020,0032"), 3);
+            at = at != null ? at : new double[3];
+            String sop = value(h, "0008,0018");
+            Double s = number(value(h, "0028,1053"));
+            Double c = number(value(h, "0028,1052"));
+            for (int k = 0; k < m.slices(); k++) {
+                int j = i * m.slices() + k;
+                cut.addSlice(name + " tile " + (k + 1), m.tile(src.getPixels(i + 1), k));
+                items.add(new SeriesLayout.Item(name + " tile " + (k + 1), sop == null ? null : sop + "#" + k,
+                        Mosaic.position(at, orientation, k, step), orientation, integer(value(h, "0020,0100")),
+                        "Temporal Position Identifier (0020,0100)", integer(value(h, "0020,0012")),
+                        number(value(h, "0020,0013")), number(value(h, "0018,0086")), "Echo Numbers (0018,0086)"));
+                slope[j] = s == null ? 1.0 : s;
+                intercept[j] = c == null ? 0.0 : c;
+                signed[j] = "1".equals(value(h, "0028,0103"));
+            }
+        }
+        SeriesLayout.Layout l = SeriesLayout.arrange(items, echo, echoHint, smaller(thickness, between),
+                integer(value(h0, "0020,0105")));
+        SeriesLayout.Layout layout = new SeriesLayout.Layout(l.slices(), l.repeats(), l.order(), l.spacing(),
+                l.note().replace(SeriesLayout.BY_POSITION, m.describe()));
+        ImagePlus tilesImp = new ImagePlus(imp.getTitle(), cut);
+        tilesImp.setCalibration(imp.getCalibration().copy());
+        return view(tilesImp, layout, slope, intercept, signed, h0.substring(h0.indexOf('\n') + 1),
+                "the DICOM headers in its slice labels");
     }
 
     // ---- one multi-frame file -----------------------------------------------------------------------------------

@@ -35,18 +35,24 @@ public final class DicomFile {
     private static final int PIXEL_DATA = 0x7FE00010;
     private static final int PER_FRAME = 0x52009230;
     private static final int SHARED = 0x52009229;
+    /**
+     * Siemens' private Number of Images in Mosaic, element 0A of the block (0019,0010) = "SIEMENS MR HEADER"
+     * (an unsigned short; in implicit VR files its type comes from here).
+     */
+    private static final int MOSAIC_SLICES = 0x0019100A;
 
     /** Binary value representations of the tags read here, for implicit VR files (PS3.6). */
     private static final Map<Integer, String> BINARY = Map.ofEntries(
             Map.entry(0x00280002, "US"), Map.entry(0x00280010, "US"), Map.entry(0x00280011, "US"),
             Map.entry(0x00280100, "US"), Map.entry(0x00280101, "US"), Map.entry(0x00280103, "US"),
             Map.entry(0x00209057, "UL"), Map.entry(0x00209128, "UL"), Map.entry(0x00209157, "UL"),
-            Map.entry(0x00189082, "FD"));
+            Map.entry(0x00189082, "FD"), Map.entry(MOSAIC_SLICES, "US"));
     /** Sequences read into (the rest are skipped whole). */
     private static final Set<Integer> SEQUENCES = Set.of(SHARED, PER_FRAME, 0x00209111, 0x00209113, 0x00209116,
             0x00289110, 0x00289145, 0x00189114);
     /** Top-level elements kept (the rest are skipped by their length). */
-    private static final Set<Integer> KEPT = Set.of(0x00020002, 0x00020010, 0x00080016, 0x00080018, 0x0020000E,
+    private static final Set<Integer> KEPT = Set.of(0x00020002, 0x00020010, 0x00080008, 0x00080016, 0x00080018,
+            0x0020000E, 0x00190010, MOSAIC_SLICES,
             0x00200032, 0x00200037, 0x00200100, 0x00200105, 0x00200012, 0x00200013, 0x00180086, 0x00180081,
             0x00280002, 0x00280008, 0x00280010, 0x00280011, 0x00280100, 0x00280103, 0x00281052, 0x00281053,
             0x00280030, 0x00180050, 0x00180088);
@@ -107,6 +113,8 @@ public final class DicomFile {
     private final Double thickness;
     private final Double spacingBetween;
     private final boolean enhanced;
+    private final boolean mosaicType;
+    private final Integer mosaicSlices;
     private final List<Frame> frames;
     private final List<Object> pixels;
 
@@ -134,6 +142,12 @@ public final class DicomFile {
         Double sb = number(top.get(0x00180088));
         this.spacingBetween = sb != null ? sb : number(get(top, SHARED, 0x00289110, 0x00180088));
         this.enhanced = top.get(PER_FRAME) instanceof List<?> l && !l.isEmpty();
+        String type = text(top.get(0x00080008));
+        this.mosaicType = type != null && java.util.Arrays.stream(type.split("\\\\"))
+                .anyMatch(v -> v.trim().equals("MOSAIC"));
+        String creator = text(top.get(0x00190010));
+        this.mosaicSlices = creator != null && creator.trim().equals("SIEMENS MR HEADER")
+                ? unsignedShort(top.get(MOSAIC_SLICES)) : null;
         this.frames = List.copyOf(frames);
         this.pixels = pixels;
     }
@@ -526,6 +540,26 @@ public final class DicomFile {
         return o;
     }
 
+    /**
+     * A private unsigned short: written as US, or as UN or OB when the file was converted without the
+     * private dictionary (two bytes in the file's byte order), or as a decimal string; null otherwise.
+     */
+    private static Integer unsignedShort(Object o) {
+        if (!(o instanceof Value v)) {
+            return null;
+        }
+        if (v.bytes().length == 2 && Set.of("US", "UN", "OB", "OW", "TX").contains(v.vr())) {
+            int lo = v.bytes()[v.bigEndian() ? 1 : 0] & 0xff;
+            int hi = v.bytes()[v.bigEndian() ? 0 : 1] & 0xff;
+            return hi << 8 | lo;
+        }
+        if (v.vr().equals("IS") || v.vr().equals("DS")) {
+            double[] d = v.numbers();
+            return d.length == 1 && d[0] >= 0 && d[0] == Math.rint(d[0]) ? (int) d[0] : null;
+        }
+        return null;
+    }
+
     private static String text(Object o) {
         return o instanceof Value v ? v.text() : null;
     }
@@ -706,6 +740,16 @@ public final class DicomFile {
     }
 
     /** True for a multi-frame file with per-frame functional groups (Enhanced MR and the like). */
+    /** True when Image Type (0008,0008) names this image a MOSAIC (Siemens' tiled slices). */
+    public boolean mosaicType() {
+        return mosaicType;
+    }
+
+    /** Siemens' Number of Images in Mosaic (0019,100A of the block "SIEMENS MR HEADER"), or null. */
+    public Integer mosaicSlices() {
+        return mosaicSlices;
+    }
+
     public boolean enhanced() {
         return enhanced;
     }

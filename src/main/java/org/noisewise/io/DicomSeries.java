@@ -236,8 +236,12 @@ public final class DicomSeries {
     private static ImagePlus assemble(DicomFile[] files, String title, Integer echo, String echoHint, String info)
             throws InputException {
         DicomFile first = files[0];
-        int w = first.columns();
-        int h = first.rows();
+        Mosaic mosaic = Mosaic.of(first);
+        int w = mosaic == null ? first.columns() : mosaic.tileWidth();
+        int h = mosaic == null ? first.rows() : mosaic.tileHeight();
+        // a mosaic's slices are placed one step apart along the normal, in their stored order
+        double step = first.spacingBetween() != null && first.spacingBetween() > 0 ? first.spacingBetween()
+                : first.thickness() != null && first.thickness() > 0 ? first.thickness() : 1.0;
         List<SeriesLayout.Item> items = new ArrayList<>();
         List<Object> planes = new ArrayList<>();
         List<DicomFile.Frame> facts = new ArrayList<>();
@@ -247,11 +251,32 @@ public final class DicomSeries {
                 throw new InputException("'" + f.path() + "' holds no pixel data: it is not an image; remove it from the "
                         + "folder");
             }
-            if (f.columns() != w || f.rows() != h) {
-                throw new InputException("the series mixes image sizes (" + w + "x" + h + " and " + f.columns() + "x"
-                        + f.rows() + "): put each series in its own folder");
+            if (f.columns() != first.columns() || f.rows() != first.rows()) {
+                throw new InputException("the series mixes image sizes (" + first.columns() + "x" + first.rows()
+                        + " and " + f.columns() + "x" + f.rows() + "): put each series in its own folder");
+            }
+            if (!java.util.Objects.equals(Mosaic.of(f), mosaic)) {
+                throw new InputException("the series mixes Siemens mosaics and other images ('" + first.path()
+                        .getFileName() + "' and '" + f.path().getFileName() + "' differ in Image Type MOSAIC or "
+                        + "Number of Images in Mosaic, 0019,100A): put each series in its own folder");
             }
             boolean multi = f.frames().size() > 1;
+            if (mosaic != null) {
+                DicomFile.Frame fr = f.frames().get(0);
+                double[] orientation = fr.orientation() != null ? fr.orientation() : new double[] {1, 0, 0, 0, 1, 0};
+                double[] at = fr.position() != null ? fr.position() : new double[3];
+                for (int k = 0; k < mosaic.slices(); k++) {
+                    items.add(new SeriesLayout.Item(f.path().getFileName() + " tile " + (k + 1),
+                            f.sopInstance() == null ? null : f.sopInstance() + "#" + k,
+                            Mosaic.position(at, orientation, k, step), orientation, f.temporal(),
+                            "Temporal Position Identifier (0020,0100)", f.acquisition(), f.instance(), f.echoNumber(),
+                            "Echo Numbers (0018,0086)"));
+                    planes.add(mosaic.tile(f.pixels().get(0), k));
+                    facts.add(fr);
+                    owners.add(f);
+                }
+                continue;
+            }
             for (DicomFile.Frame fr : f.frames()) {
                 String name = f.path().getFileName() + (multi ? " frame " + (fr.index() + 1) : "");
                 String key = f.sopInstance() == null ? null : f.sopInstance() + "#" + fr.index();
@@ -322,7 +347,11 @@ public final class DicomSeries {
         if (info != null) {
             out.setProperty("Info", info);
         }
-        String note = "'" + title + "': " + layout.note();
+        String note = "'" + title + "': " + (mosaic == null ? layout.note()
+                : layout.note().replace(SeriesLayout.BY_POSITION, mosaic.describe()));
+        if (mosaic == null && first.mosaicType()) {
+            note += "; " + Mosaic.notCut(first.mosaicSlices(), first.columns(), first.rows());
+        }
         if (!sameStorage) {
             note += "; rescale slope and intercept differ between images, so each image's own rescale was applied "
                     + "(32-bit values)";

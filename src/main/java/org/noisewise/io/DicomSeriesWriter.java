@@ -191,15 +191,65 @@ public final class DicomSeriesWriter {
             if (s.echo > 0) {
                 d.integer(0x00180086, s.echo);
             }
-            d.decimals(0x00180081, s.echoTimeMs);
-            d.decimals(0x00280030, s.pixelMm, s.pixelMm);
-            d.decimals(0x00180050, s.thicknessMm);
-            d.decimals(0x00180088, Math.abs(s.stepMm));
-            d.decimals(0x00281052, im.intercept());
-            d.decimals(0x00281053, im.slope());
-            d.text(0x00281054, "LO", "US");
+            acquisitionFacts(d, s, im);
             d.pixels(im.stored());
             out.add(new File(String.format(Locale.ROOT, "IM%04d.dcm", instance),
+                    DicomWriter.encode(d, s.transferSyntax, s.undefinedLengths)));
+        }
+        return out;
+    }
+
+    /**
+     * One file per repeat in the mosaic form of single-frame MR Image Storage that Siemens scanners write
+     * for functional and diffusion series: the repeat's slices tiled row by row, in slice order, in a
+     * square grid of {@code ceil(sqrt(slices))} tiles a side (unused tiles zero); Image Type ending in
+     * MOSAIC; the number of slices in the private element (0019,100A) of the block "SIEMENS MR HEADER"
+     * (0019,0010), as unsigned short; Image Position (Patient) that of the mosaic's first pixel, as if the
+     * mosaic were one image centred on the slices; Acquisition and Instance Number the repeat's (1-based)
+     * and no temporal position tags. Named {@code MOSAIC0001.dcm}, ...
+     */
+    public static List<File> mosaic(Spec s) {
+        int grid = (int) Math.ceil(Math.sqrt(s.slices));
+        int mw = grid * s.columns;
+        int mh = grid * s.rows;
+        List<File> out = new ArrayList<>();
+        for (int t = 0; t < s.repeats; t++) {
+            short[] tiles = new short[mw * mh];
+            Image first = null;
+            for (Image im : s.images) {
+                if (im.t() != t) {
+                    continue;
+                }
+                first = first == null ? im : first;
+                int tx = im.z() % grid * s.columns;
+                int ty = im.z() / grid * s.rows;
+                for (int y = 0; y < s.rows; y++) {
+                    System.arraycopy(im.stored(), y * s.columns, tiles, (ty + y) * mw + tx, s.columns);
+                }
+            }
+            if (first == null) {
+                continue;
+            }
+            DicomWriter.Dataset d = base(s, DicomWriter.MR_IMAGE, s.seriesName + " mosaic " + t);
+            d.us(0x00280010, mh);
+            d.us(0x00280011, mw);
+            d.text(0x00080008, "CS", "ORIGINAL\\PRIMARY\\M\\ND\\MOSAIC");
+            d.text(0x00190010, "LO", "SIEMENS MR HEADER");
+            d.us(0x0019100A, s.slices);
+            d.integer(0x00200013, t + 1);
+            d.integer(0x00200012, t + 1);
+            double[] p0 = s.position(0);
+            double half = (grid - 1) / 2.0;
+            double[] corner = new double[3];
+            for (int i = 0; i < 3; i++) {
+                corner[i] = p0[i] - half * s.columns * s.pixelMm * s.cosines[i] - half * s.rows * s.pixelMm
+                        * s.cosines[3 + i];
+            }
+            d.decimals(0x00200032, corner);
+            d.decimals(0x00200037, s.cosines);
+            acquisitionFacts(d, s, first);
+            d.pixels(tiles);
+            out.add(new File(String.format(Locale.ROOT, "MOSAIC%04d.dcm", t + 1),
                     DicomWriter.encode(d, s.transferSyntax, s.undefinedLengths)));
         }
         return out;
@@ -246,6 +296,17 @@ public final class DicomSeriesWriter {
         d.sequence(0x52009230, perFrame);
         d.pixels(pixels);
         return DicomWriter.encode(d, s.transferSyntax, s.undefinedLengths);
+    }
+
+    /** Echo time, pixel spacing, slice thickness and spacing, and the image's rescale, as single-frame files carry them. */
+    private static void acquisitionFacts(DicomWriter.Dataset d, Spec s, Image im) {
+        d.decimals(0x00180081, s.echoTimeMs);
+        d.decimals(0x00280030, s.pixelMm, s.pixelMm);
+        d.decimals(0x00180050, s.thicknessMm);
+        d.decimals(0x00180088, Math.abs(s.stepMm));
+        d.decimals(0x00281052, im.intercept());
+        d.decimals(0x00281053, im.slope());
+        d.text(0x00281054, "LO", "US");
     }
 
     private static DicomWriter.Dataset base(Spec s, String sopClass, String instanceName) {

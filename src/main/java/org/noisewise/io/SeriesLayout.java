@@ -45,6 +45,9 @@ public final class SeriesLayout {
      * @param echo         Echo Number, or the effective echo time, or null
      * @param echoTag      the tag {@code echo} came from
      */
+    /** How the notes say the slices were placed from their positions. */
+    static final String BY_POSITION = "DICOM positions (along the slice normal, increasing)";
+
     public record Item(String name, String key, double[] position, double[] orientation, Integer temporal,
                        String temporalTag, Integer acquisition, Double instance, Double echo, String echoTag) {
     }
@@ -94,7 +97,7 @@ public final class SeriesLayout {
                 d[i] = dot(items.get(i).position(), normal);
             }
             positions = cluster(kept, d, 0.4 * (sliceGapMm != null && sliceGapMm > 0 ? sliceGapMm : 1.0));
-            placed = "DICOM positions (along the slice normal, increasing)";
+            placed = BY_POSITION;
         }
         int z = positions.size();
         TimeKey key = timeKey(items, positions);

@@ -85,7 +85,8 @@ public final class Planes {
         } else if (imp.getStackSize() > 1 && !rows.isEmpty()) {
             ImagePlus view;
             try {
-                view = Arrangement.of(imp, null, "");
+                // a stack of mosaics is refused (its planes are measured as the images they are)
+                view = Arrangement.of(imp, null, "", "");
             } catch (InputException e) {
                 return rows;
             }

@@ -63,10 +63,18 @@ class ScannerSeriesCliTest {
         CliRunner.Result r = CliRunner.run("repeat", folder.toString(), "--signal", ScannerSeries.SIGNAL, "--json");
         JsonArray dicom = rows(r);
         JsonArray hyper = rows(CliRunner.run("repeat", tiff.toString(), "--signal", ScannerSeries.SIGNAL, "--json"));
-        assertEquals(Z, dicom.size());
         assertTrue(r.err().contains("4 slices x 20 repeats from DICOM positions (along the slice normal, increasing) "
                 + "and Temporal Position Identifier (0020,0100)"), r.err());
-        for (int z = 0; z < Z; z++) {
+        assertSlicesAsTheHyperstack(dicom, hyper, Z);
+    }
+
+    /**
+     * Each z slice's row of a DICOM series: its number, T repeats, the TIFF hyperstack's SNR for the same
+     * stored values, and an interval that contains the true SNR.
+     */
+    private static void assertSlicesAsTheHyperstack(JsonArray dicom, JsonArray hyper, int slices) {
+        assertEquals(slices, dicom.size());
+        for (int z = 0; z < slices; z++) {
             JsonObject d = dicom.get(z).getAsJsonObject();
             JsonObject h = hyper.get(z).getAsJsonObject();
             assertEquals(z + 1, d.get("slice").getAsInt());
@@ -76,6 +84,33 @@ class ScannerSeriesCliTest {
             double truth = ScannerSeries.amplitude(z) / ScannerSeries.SIGMA;
             double[] ci = interval(d, "snr_ci95");
             assertTrue(ci[0] <= truth && truth <= ci[1], "slice " + (z + 1) + ": " + truth + " in " + ci[0] + "-" + ci[1]);
+        }
+    }
+
+    /**
+     * A folder of Siemens mosaics (a file per repeat, 5 slices tiled 3 x 3): repeat and stability measure
+     * each slice as the TIFF hyperstack of the same stored values gives it, and say how the files were cut.
+     */
+    @Test
+    void siemensMosaicsAreMeasuredSliceBySlice() {
+        int z5 = 5;
+        Path mosaics = ScannerSeries.mosaicFolder(ScannerSeries.spec("climosaic", z5, T, SEED, false), dir,
+                "cli_mosaics");
+        Path mosaicTiff = ScannerSeries.tiff(z5, T, SEED, dir, "cli_mosaics.tif");
+        CliRunner.Result r = CliRunner.run("repeat", mosaics.toString(), "--signal", ScannerSeries.SIGNAL, "--json");
+        JsonArray dicom = rows(r);
+        JsonArray hyper = rows(CliRunner.run("repeat", mosaicTiff.toString(), "--signal", ScannerSeries.SIGNAL,
+                "--json"));
+        assertTrue(r.err().contains("5 slices x 20 repeats from the tiles of each Siemens mosaic (5 slices in 3 x 3 tiles "
+                + "of 64 x 64"), r.err());
+        assertSlicesAsTheHyperstack(dicom, hyper, z5);
+        JsonArray stab = rows(CliRunner.run("stability", mosaics.toString(), "--json"));
+        JsonArray stabTiff = rows(CliRunner.run("stability", mosaicTiff.toString(), "--json"));
+        assertEquals(z5, stab.size());
+        for (int z = 0; z < z5; z++) {
+            assertEquals(stabTiff.get(z).getAsJsonObject().get("sfnr").getAsDouble(),
+                    stab.get(z).getAsJsonObject().get("sfnr").getAsDouble(), 1e-9 * stabTiff.get(z).getAsJsonObject()
+                            .get("sfnr").getAsDouble(), "slice " + (z + 1));
         }
     }
 

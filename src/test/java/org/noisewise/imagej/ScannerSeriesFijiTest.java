@@ -78,6 +78,21 @@ class ScannerSeriesFijiTest {
         return JsonParser.parseString(out.toString()).getAsJsonArray();
     }
 
+    /** Shows the image, adds a signal region and runs SNR Map, which is expected to refuse; returns the Log. */
+    private String refusedSnrMap(ImagePlus imp) {
+        imp.show();
+        Roi signal = new Roi(24, 24, 16, 16);
+        signal.setName("signal");
+        rm.addRoi(signal);
+        IJ.redirectErrorMessages();
+        try {
+            IJ.run(imp, "SNR Map (Repeated Acquisitions)...", "channels=1 slices=[All slices]");
+        } catch (RuntimeException expectedMacroCancel) {
+            // ImageJ cancels the macro after reporting the error
+        }
+        return IJ.getLog();
+    }
+
     private void measureAsTheCommandLine(ImagePlus imp, Path source) {
         String before = TestImages.checksum(imp);
         int planes = imp.getStackSize();
@@ -189,17 +204,7 @@ class ScannerSeriesFijiTest {
             }
         }
         ImagePlus imp = FolderOpener.open(folder.toString());
-        imp.show();
-        Roi signal = new Roi(24, 24, 16, 16);
-        signal.setName("signal");
-        rm.addRoi(signal);
-        IJ.redirectErrorMessages();
-        try {
-            IJ.run(imp, "SNR Map (Repeated Acquisitions)...", "channels=1 slices=[All slices]");
-        } catch (RuntimeException expectedMacroCancel) {
-            // ImageJ cancels the macro after reporting the error
-        }
-        String log = IJ.getLog();
+        String log = refusedSnrMap(imp);
         assertTrue(log.contains("2 echoes") && log.contains("Arrange Series"), log);
         assertTrue(!log.contains("--"), "no command-line flags in Fiji: " + log);
         // Arrange Series with the echo chosen: a new hyperstack of that echo; the import is unchanged
@@ -225,5 +230,64 @@ class ScannerSeriesFijiTest {
             double w = cli.get(z).getAsJsonObject().get("snr").getAsDouble();
             assertEquals(w, rt.getValue("SNR (corrected)", z), 1e-6 * w);
         }
+    }
+
+    /**
+     * A folder of Siemens mosaics imported with File > Import > Image Sequence: a region drawn on a mosaic
+     * cannot be placed on its slices, so the measuring commands refuse it and point to Arrange Series, which
+     * cuts the mosaics into a new hyperstack of slices and repeats (the import unchanged); that hyperstack
+     * measures as the command line measures the folder.
+     */
+    @Test
+    void siemensMosaicsAreCutByArrangeSeriesAndMeasuredAsTheCommandLine() throws Exception {
+        Path folder = ScannerSeries.mosaicFolder(ScannerSeries.spec("fijimosaic", Z, T, SEED, false), dir, "mosaics");
+        ImagePlus imp = FolderOpener.open(folder.toString());
+        assertNotNull(imp);
+        assertEquals(T, imp.getStackSize(), "one mosaic per repeat");
+        assertEquals(2 * ScannerSeries.SIZE, imp.getWidth(), "3 slices tiled 2 x 2");
+        String log = refusedSnrMap(imp);
+        assertTrue(log.contains("is a stack of Siemens mosaics (each image tiles 3 slices of 64 x 64") && log.contains(
+                "Plugins > Noisewise > Arrange Series"), log);
+        assertTrue(!log.contains("--"), "no command-line flags in Fiji: " + log);
+        assertEquals(null, ResultsTable.getResultsTable(RepeatedSnrCommand.tableTitle(imp)), "nothing measured");
+        String before = TestImages.checksum(imp);
+        IJ.run(imp, "Arrange Series...", "echo=0");
+        ImagePlus arranged = WindowManager.getImage(imp.getTitle() + " (arranged)");
+        assertNotNull(arranged, "the new image");
+        assertEquals(Z, arranged.getNSlices());
+        assertEquals(T, arranged.getNFrames());
+        assertEquals(ScannerSeries.SIZE, arranged.getWidth());
+        for (int z = 1; z <= Z; z++) {
+            short[] want = ScannerSeries.stored(z - 1, 4, SEED, 1);
+            float[] got = org.noisewise.io.ImagePlanes.calibratedPixels(arranged, arranged.getStackIndex(1, z, 5));
+            for (int i = 0; i < want.length; i += 97) {
+                assertEquals(ScannerSeries.SLOPE * (want[i] & 0xffff), got[i], 1e-4, "z " + z + " pixel " + i);
+            }
+        }
+        assertTrue(IJ.getLog().contains("from the tiles of each Siemens mosaic"), IJ.getLog());
+        assertEquals(before, TestImages.checksum(imp), "the import is unchanged");
+        assertEquals(T, imp.getStackSize());
+        assertEquals(1, rm.getCount(), "the ROI Manager keeps the user's region");
+        IJ.run(arranged, "SNR Map (Repeated Acquisitions)...", "channels=1 slices=[All slices]");
+        ResultsTable rt = ResultsTable.getResultsTable(RepeatedSnrCommand.tableTitle(arranged));
+        assertNotNull(rt, IJ.getLog());
+        assertEquals(Z, rt.size());
+        JsonArray cli = cli("repeat", folder.toString(), "--signal", ScannerSeries.SIGNAL, "--json");
+        for (int z = 0; z < Z; z++) {
+            double w = cli.get(z).getAsJsonObject().get("snr").getAsDouble();
+            assertEquals(w, rt.getValue("SNR (corrected)", z), 1e-6 * w, "z " + (z + 1) + " as the command line");
+        }
+        // one mosaic file opened alone (its header in the image's Info) is one volume: Arrange Series cuts it too
+        ImagePlus single = new Opener().openImage(folder.resolve("MOSAIC0005.dcm").toString());
+        assertNotNull(single);
+        single.show();
+        IJ.run(single, "Arrange Series...", "echo=0");
+        ImagePlus volume = WindowManager.getImage(single.getTitle() + " (arranged)");
+        assertNotNull(volume, IJ.getLog());
+        assertEquals(Z, volume.getNSlices());
+        assertEquals(1, volume.getNFrames());
+        short[] want = ScannerSeries.stored(2, 4, SEED, 1);
+        assertEquals(ScannerSeries.SLOPE * (want[700] & 0xffff), org.noisewise.io.ImagePlanes.calibratedPixels(volume,
+                3)[700], 1e-4);
     }
 }

@@ -394,6 +394,9 @@ class DicomSeriesTest {
         assertEquals(2, imp.getNSlices());
         assertEquals(1, imp.getNFrames());
         assertEquals(3.0, imp.getCalibration().pixelDepth, 1e-3);
+        // their headers still call them mosaics of 48 slices (the pixels were replaced by a 256 x 256 test pattern)
+        assertTrue(Arrangement.note(imp).contains("Image Type (0008,0008) says MOSAIC, but 256 x 256 pixels cannot hold "
+                + "48 slices in 7 x 7 tiles, so each image was read as one slice"), Arrangement.note(imp));
         Prefs.fixedDicomScaling = true;
         ImagePlus ij0 = new Opener().openImage(f.resolve("0.dcm").toString());
         ImagePlus ij1 = new Opener().openImage(f.resolve("1.dcm").toString());
@@ -424,6 +427,87 @@ class DicomSeriesTest {
         assertNotNull(c);
         assertEquals(2.1079365079365, c[1], 1e-12);
         assertTrue(Arrangement.note(imp).contains("176 slices x 1 repeat"), Arrangement.note(imp));
+    }
+
+    /**
+     * Siemens mosaics (a file per repeat, the repeat's slices tiled row by row): 5 slices in 3 x 3 tiles
+     * (the last four empty), in explicit and implicit VR, become 5 z slices x 6 repeats whose planes are
+     * the slices written, spaced by Spacing Between Slices; a single mosaic file is one volume.
+     */
+    @Test
+    void siemensMosaicsAreCutIntoTheirSlices() throws Exception {
+        int z5 = 5;
+        for (String syntax : new String[] {DicomWriter.EXPLICIT_LE, DicomWriter.IMPLICIT_LE}) {
+            String name = "mosaic_" + syntax.length();
+            Path f = ScannerSeries.mosaicFolder(ScannerSeries.spec(name, z5, T, SEED, false)
+                    .transferSyntax(syntax, false), dir, name);
+            try (java.util.stream.Stream<Path> files = Files.list(f)) {
+                assertEquals(T, files.count(), "a file per repeat");
+            }
+            ImagePlus imp = ImageFiles.open(f);
+            assertEquals(z5, imp.getNSlices(), syntax);
+            assertEquals(T, imp.getNFrames(), syntax);
+            assertEquals(ScannerSeries.SIZE, imp.getWidth());
+            assertEquals(ScannerSeries.SIZE, imp.getHeight());
+            for (int z = 1; z <= z5; z++) {
+                for (int t = 1; t <= T; t++) {
+                    assertArrayEquals(expected(z - 1, t - 1), ImagePlanes.calibratedPixels(imp,
+                            StackPlanes.index(imp, z, t)), 1e-4f, syntax + " z " + z + " t " + t);
+                }
+            }
+            String note = Arrangement.note(imp);
+            assertTrue(note.contains("5 slices x 6 repeats from the tiles of each Siemens mosaic (5 slices in 3 x 3 "
+                    + "tiles of 64 x 64, Number of Images in Mosaic 0019,100A), in their stored order and Acquisition "
+                    + "Number (0020,0012)"), note);
+            assertEquals(6.0, imp.getCalibration().pixelDepth, 1e-9, "Spacing Between Slices");
+            ImagePlus one = DicomSeries.openFile(f.resolve("MOSAIC0003.dcm"), null, ImageFiles.ECHO_HINT);
+            assertEquals(z5, one.getNSlices());
+            assertEquals(1, one.getNFrames());
+            assertArrayEquals(expected(4, 2), ImagePlanes.calibratedPixels(one, 5), 1e-4f);
+        }
+    }
+
+    /** A mosaic that does not say how many slices it tiles, or whose size does not divide, is refused. */
+    @Test
+    void mosaicsThatCannotBeCutAreRefused() throws Exception {
+        Path f = ScannerSeries.mosaicFolder(ScannerSeries.spec("nocount", 5, 2, SEED, false), dir, "nocount");
+        // the private block's creator changed (as when another vendor's block stands there): no slice count
+        try (java.util.stream.Stream<Path> files = Files.list(f)) {
+            for (Path p : files.toList()) {
+                String text = new String(Files.readAllBytes(p), java.nio.charset.StandardCharsets.ISO_8859_1);
+                Files.write(p, text.replace("SIEMENS MR HEADER", "OTHER MR HEADER  ")
+                        .getBytes(java.nio.charset.StandardCharsets.ISO_8859_1));
+            }
+        }
+        InputException e = assertThrows(InputException.class, () -> ImageFiles.open(f));
+        assertTrue(e.getMessage().contains("is a Siemens mosaic (Image Type MOSAIC, 0008,0008) that does not say how "
+                + "many slices it tiles"), e.getMessage());
+        // pixels that cannot hold the slices in the square grid: not a mosaic as Siemens writes it
+        org.junit.jupiter.api.Assertions.assertNull(Mosaic.of(48, 900, 896, "odd.dcm"));
+        assertEquals(new Mosaic(48, 7, 128, 128), Mosaic.of(48, 896, 896, "dwi.dcm"));
+        assertEquals(new Mosaic(49, 7, 128, 128), Mosaic.of(49, 896, 896, "dwi.dcm"));
+        assertEquals(new Mosaic(50, 8, 112, 112), Mosaic.of(50, 896, 896, "dwi.dcm"));
+    }
+
+    /**
+     * nibabel's Siemens diffusion mosaic (implicit VR, 896 x 896, Image Type ...\MOSAIC, Number of Images
+     * in Mosaic 48 in the block "SIEMENS MR HEADER", Spacing Between Slices 3 mm; its pixel values are
+     * blank): 48 slices of 128 x 128 in one repeat, 3 mm apart. ImageJ's own header text shows that
+     * private element as the character "0" (the unsigned short 48 read as text), which is why the
+     * count is read by Noisewise's parser.
+     */
+    @Test
+    void realSiemensMosaicIsFortyEightSlices() throws Exception {
+        Path f = resource("siemens_dwi_mosaic.dcm.gz", dir.resolve("dwi_mosaic.dcm"));
+        ImagePlus imp = ImageFiles.open(f);
+        assertEquals(48, imp.getNSlices());
+        assertEquals(1, imp.getNFrames());
+        assertEquals(128, imp.getWidth());
+        assertEquals(128, imp.getHeight());
+        assertEquals(3.0, imp.getCalibration().pixelDepth, 1e-12, "Spacing Between Slices");
+        assertEquals(1.796875, imp.getCalibration().pixelWidth, 1e-12);
+        assertTrue(Arrangement.note(imp).contains("48 slices x 1 repeat from the tiles of each Siemens mosaic (48 slices "
+                + "in 7 x 7 tiles of 128 x 128"), Arrangement.note(imp));
     }
 
     /** pydicom's MR_small in explicit, implicit and big-endian transfer syntaxes reads as ImageJ reads it. */

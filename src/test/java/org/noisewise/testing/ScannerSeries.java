@@ -65,9 +65,18 @@ public final class ScannerSeries {
 
     /** Writes the single-frame files into a new folder {@code dir/name}. */
     public static Path folder(DicomSeriesWriter.Spec spec, Path dir, String name) {
+        return write(DicomSeriesWriter.singleFrame(spec), dir, name);
+    }
+
+    /** Writes the series as Siemens mosaics (a file per repeat) into a new folder {@code dir/name}. */
+    public static Path mosaicFolder(DicomSeriesWriter.Spec spec, Path dir, String name) {
+        return write(DicomSeriesWriter.mosaic(spec), dir, name);
+    }
+
+    private static Path write(java.util.List<DicomSeriesWriter.File> files, Path dir, String name) {
         try {
             Path f = Files.createDirectories(dir.resolve(name));
-            for (DicomSeriesWriter.File file : DicomSeriesWriter.singleFrame(spec)) {
+            for (DicomSeriesWriter.File file : files) {
                 Files.write(f.resolve(file.name()), file.bytes());
             }
             return f;

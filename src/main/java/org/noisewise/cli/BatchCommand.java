@@ -261,6 +261,8 @@ public class BatchCommand implements Callable<Integer> {
             // one reading of each file's header says whether it is DICOM, and of which series
             DicomSeries.Contents contents = DicomSeries.scan(d, f -> skip == null
                     || !f.toAbsolutePath().normalize().equals(skip));
+            // DICOM objects that are not images (a DICOMDIR at the top of an export, reports) are named in the note
+            leftOut.addAll(contents.nonImages());
             for (Path f : contents.others()) {
                 if (ImageFiles.notAnImage(f)) {
                     leftOut.add(f);

@@ -113,14 +113,16 @@ public final class DicomFile {
     private final Double thickness;
     private final Double spacingBetween;
     private final boolean enhanced;
+    private final boolean pixelData;
     private final boolean mosaicType;
     private final Integer mosaicSlices;
     private final List<Frame> frames;
     private final List<Object> pixels;
 
     private DicomFile(Path path, Map<Integer, Object> top, String transferSyntax, List<Frame> frames,
-                      List<Object> pixels) {
+                      List<Object> pixels, boolean pixelData) {
         this.path = path;
+        this.pixelData = pixelData;
         this.transferSyntax = transferSyntax;
         String sop = text(top.get(0x00080016));
         this.sopClass = sop != null ? sop : text(top.get(0x00020002));
@@ -385,7 +387,7 @@ public final class DicomFile {
         if (withPixels && pixelOffset >= 0) {
             pixels = framePixels(path, top, b, frames.size(), pixelOffset, pixelLength, big);
         }
-        return new DicomFile(path, top, syntax, frames, pixels);
+        return new DicomFile(path, top, syntax, frames, pixels, pixelOffset >= 0);
     }
 
     /** Walks elements, keeping leaves and the sequences named in {@link #SEQUENCES}. */
@@ -700,6 +702,15 @@ public final class DicomFile {
     /** The frames' stored values (read with {@code withPixels}: 8-bit {@code byte[]} or 16-bit {@code short[]}). */
     public List<Object> pixels() {
         return pixels;
+    }
+
+    /**
+     * True for a DICOM object that is not an image: no Pixel Data (7FE0,0010) and no image size (Rows,
+     * Columns), such as a DICOMDIR, a structured report or a presentation state. (An image file that
+     * states its size but lacks its pixels is a damaged image, not this.)
+     */
+    public boolean notAnImage() {
+        return !pixelData && rows == 0 && columns == 0;
     }
 
     /** True when the file holds pixel data that were read. */

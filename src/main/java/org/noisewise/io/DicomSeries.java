@@ -45,11 +45,12 @@ public final class DicomSeries {
     }
 
     /**
-     * What a folder holds directly: its DICOM files grouped by series (in a deterministic order), and
-     * its other regular files (by name). Every file's header is read once, on every core; only a file
-     * that does not parse as DICOM is asked again whether ImageJ calls it DICOM.
+     * What a folder holds directly: its DICOM files grouped by series (in a deterministic order), its
+     * other regular files (by name), and its DICOM objects that are not images (a DICOMDIR, reports,
+     * presentation states: {@link DicomFile#notAnImage}). Every file's header is read once, on every
+     * core; only a file that does not parse as DICOM is asked again whether ImageJ calls it DICOM.
      */
-    public record Contents(List<Series> series, List<Path> others) {
+    public record Contents(List<Series> series, List<Path> others, List<Path> nonImages) {
     }
 
     /** The contents of {@code folder}, leaving out the entries {@code keep} rejects (never read). */
@@ -61,7 +62,8 @@ public final class DicomSeries {
             }
         }
         String[] uids = new String[files.size()];
-        // 1: DICOM; 0: another regular file; -1: not a regular file (a subfolder, a link to nothing)
+        // 1: DICOM; 2: a DICOM object that is not an image; 0: another regular file; -1: not a regular file (a
+        // subfolder, a link to nothing)
         byte[] kind = new byte[files.size()];
         Blocks.tasks(files.size(), i -> {
             Path f = files.get(i);
@@ -73,7 +75,7 @@ public final class DicomSeries {
                 return;
             }
             if (d != null) {
-                kind[i] = 1;
+                kind[i] = (byte) (d.notAnImage() ? 2 : 1);
                 uids[i] = d.seriesUid();
             } else {
                 kind[i] = (byte) (isDicom(f) ? 1 : 0);
@@ -81,17 +83,20 @@ public final class DicomSeries {
         });
         Map<String, List<Path>> groups = new LinkedHashMap<>();
         List<Path> others = new ArrayList<>();
+        List<Path> nonImages = new ArrayList<>();
         for (int i = 0; i < files.size(); i++) {
             if (kind[i] == 1) {
                 groups.computeIfAbsent(uids[i] == null ? "(no series UID)" : uids[i], k -> new ArrayList<>())
                         .add(files.get(i));
+            } else if (kind[i] == 2) {
+                nonImages.add(files.get(i));
             } else if (kind[i] == 0) {
                 others.add(files.get(i));
             }
         }
         List<Series> out = new ArrayList<>();
         groups.forEach((uid, list) -> out.add(new Series(uid, list)));
-        return new Contents(out, others);
+        return new Contents(out, others, nonImages);
     }
 
     /**
@@ -164,11 +169,20 @@ public final class DicomSeries {
             }
         }
         Map<String, List<Integer>> groups = new LinkedHashMap<>();
+        List<String> nonImages = new ArrayList<>();
         for (int i = 0; i < all.size(); i++) {
-            if (dicom[i]) {
+            if (dicom[i] && files[i] != null && files[i].notAnImage()) {
+                nonImages.add(all.get(i).getFileName().toString());
+            } else if (dicom[i]) {
                 String uid = files[i] == null ? null : files[i].seriesUid();
                 groups.computeIfAbsent(uid == null ? "(no series UID)" : uid, k -> new ArrayList<>()).add(i);
             }
+        }
+        if (groups.isEmpty() && !nonImages.isEmpty()) {
+            throw new InputException("folder '" + folder + "' holds no DICOM images, only " + nonImages.size()
+                    + " DICOM file(s) that are not images (" + String.join(", ", nonImages.stream().limit(3).toList())
+                    + (nonImages.size() > 3 ? ", ..." : "") + "): give the folder of one series (an export keeps its "
+                    + "images in sub-folders), or run batch on the whole export");
         }
         if (groups.isEmpty()) {
             throw new InputException("folder '" + folder + "' holds no DICOM files: give an image file or a folder of "
@@ -188,7 +202,14 @@ public final class DicomSeries {
             read.add(files[i]);
         }
         String text = members.get(0) == 0 ? info[0] : headerText(read.get(0).path());
-        return assemble(read.toArray(new DicomFile[0]), title, echo, echoHint, text);
+        ImagePlus out = assemble(read.toArray(new DicomFile[0]), title, echo, echoHint, text);
+        if (!nonImages.isEmpty()) {
+            Arrangement.mark(out, Arrangement.note(out) + "; left out " + nonImages.size() + " DICOM file"
+                    + (nonImages.size() == 1 ? "" : "s") + " that " + (nonImages.size() == 1 ? "is" : "are")
+                    + " not an image (no pixel data: a DICOMDIR, a report or a presentation state): "
+                    + String.join(", ", nonImages.stream().limit(3).toList()) + (nonImages.size() > 3 ? ", ..." : ""));
+        }
+        return out;
     }
 
     /**

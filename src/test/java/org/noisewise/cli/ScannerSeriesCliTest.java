@@ -251,11 +251,23 @@ class ScannerSeriesCliTest {
     void batchMeasuresEverySliceOfTheSeries() throws Exception {
         Path root = Files.createDirectories(dir.resolve("batchroot"));
         ScannerSeries.folder(ScannerSeries.spec("batch", 2, 5, SEED, false), root, "week49");
-        JsonArray rows = rows(CliRunner.run("batch", root.toString(), "--method", "repeat", "--signal",
-                ScannerSeries.SIGNAL, "--json"));
-        assertEquals(2, rows.size());
+        // an export as media hold it: a DICOMDIR at the top (pydicom's, made by DCMTK's dcmmkdir; see the
+        // opendata README), which is DICOM but not an image
+        try (java.io.InputStream in = getClass().getResourceAsStream("/opendata/DICOMDIR")) {
+            Files.write(root.resolve("DICOMDIR"), in.readAllBytes());
+        }
+        CliRunner.Result r = CliRunner.run("batch", root.toString(), "--method", "repeat", "--signal",
+                ScannerSeries.SIGNAL, "--json");
+        JsonArray rows = rows(r);
+        assertEquals(2, rows.size(), "the series' two slices and no row for the DICOMDIR");
         assertEquals(5, rows.get(1).getAsJsonObject().get("repeats").getAsInt());
         assertEquals(2, rows.get(1).getAsJsonObject().get("slice").getAsInt());
+        assertTrue(r.err().contains("1 file(s) that are not images were left out: DICOMDIR"), r.err());
+        // the export's top folder given to a measuring command: what to do instead
+        CliRunner.Result top = CliRunner.run("repeat", root.toString(), "--signal", ScannerSeries.SIGNAL);
+        assertEquals(NoisewiseCli.EXIT_INPUT, top.status());
+        assertTrue(top.err().contains("holds no DICOM images, only 1 DICOM file(s) that are not images (DICOMDIR): "
+                + "give the folder of one series"), top.err());
     }
 
     @Test

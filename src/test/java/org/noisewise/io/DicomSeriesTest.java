@@ -102,6 +102,25 @@ class DicomSeriesTest {
         assertTrue(e.getMessage().contains("zzzz_damaged.dcm"), e.getMessage());
     }
 
+    /**
+     * A DICOM object that is not an image (pydicom's DICOMDIR, made by DCMTK's dcmmkdir) beside the series'
+     * files is left out and named in the note, not taken for a second series.
+     */
+    @Test
+    void aDicomdirBesideTheFilesIsLeftOutAndNamed() throws Exception {
+        Path f = folder(ScannerSeries.spec("withdir", Z, T, SEED, false), "withdir");
+        resource("DICOMDIR", f.resolve("DICOMDIR"));
+        ImagePlus imp = ImageFiles.open(f);
+        assertArranged(imp, false);
+        assertTrue(Arrangement.note(imp).endsWith("; left out 1 DICOM file that is not an image (no pixel data: a "
+                + "DICOMDIR, a report or a presentation state): DICOMDIR"), Arrangement.note(imp));
+        DicomSeries.Contents c = DicomSeries.scan(f, p -> true);
+        assertEquals(1, c.series().size());
+        assertEquals(Z * T, c.series().get(0).files().size());
+        assertEquals(java.util.List.of(f.resolve("DICOMDIR")), c.nonImages());
+        assertTrue(c.others().isEmpty());
+    }
+
     @Test
     void descendingPositionsAreOrderedAlongTheNormal() throws Exception {
         Path f = folder(ScannerSeries.spec("desc", Z, T, SEED, false).geometry(2, 5, -6).origin(-64, -64, 40), "desc");

@@ -183,10 +183,9 @@ public final class Arrangement {
     }
 
     /**
-     * The mosaic form of a stack's images. ImageJ's header text does not show the private Number of
-     * Images in Mosaic (0019,100A) as a number, so it is read from the first image's file.
+     * The Number of Images in Mosaic (0019,100A) of the file a header came from. ImageJ's header text does
+     * not show that private element as a number, so it is read from the file itself.
      */
-    /** The Number of Images in Mosaic of the file a slice label's header came from. */
     private static Integer mosaicSlices(ImagePlus imp, String header) throws InputException {
         String name = header.substring(0, header.indexOf('\n')).trim();
         FileInfo fi = imp.getOriginalFileInfo();
@@ -198,9 +197,9 @@ public final class Arrangement {
             }
         }
         if (f == null) {
-            throw new InputException("'" + imp.getTitle() + "' is a stack of Siemens mosaics (Image Type MOSAIC), but "
-                    + "the file '" + name + "' it was opened from cannot be read again to learn how many slices each "
-                    + "mosaic tiles (0019,100A): open the series folder again with File > Import > Image Sequence");
+            throw new InputException("'" + imp.getTitle() + "' holds Siemens mosaics (Image Type MOSAIC), but the file '"
+                    + name + "' it was opened from cannot be read again to learn how many slices each mosaic tiles "
+                    + "(0019,100A): open the file, or the series folder with File > Import > Image Sequence, again");
         }
         return f.mosaicSlices();
     }
@@ -249,7 +248,7 @@ public final class Arrangement {
         ImagePlus tilesImp = new ImagePlus(imp.getTitle(), cut);
         tilesImp.setCalibration(imp.getCalibration().copy());
         return view(tilesImp, layout, slope, intercept, signed, h0.substring(h0.indexOf('\n') + 1),
-                "the DICOM headers in its slice labels");
+                n > 1 ? "the DICOM headers in its slice labels" : "its DICOM header");
     }
 
     // ---- one multi-frame file -----------------------------------------------------------------------------------

@@ -649,7 +649,8 @@ public final class DicomFile {
         }
         if (bits != 8 && bits != 16) {
             throw new InputException("'" + path + "' stores " + bits + "-bit pixels: Noisewise reads 8- and 16-bit "
-                    + "DICOM (export 32-bit data as TIFF or NIfTI)");
+                    + "DICOM" + (bits == 1 ? " (a 1-bit image is a mask or segmentation, not a magnitude image)"
+                    : " (export such data as 32-bit TIFF or NIfTI)"));
         }
         int plane = rows * cols;
         long need = (long) plane * (bits / 8) * count;

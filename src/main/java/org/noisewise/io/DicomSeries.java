@@ -269,8 +269,9 @@ public final class DicomSeries {
         List<DicomFile> owners = new ArrayList<>();
         for (DicomFile f : files) {
             if (!f.hasPixels()) {
-                throw new InputException("'" + f.path() + "' holds no pixel data: it is not an image; remove it from the "
-                        + "folder");
+                throw new InputException("'" + f.path() + "' holds no pixel data: it is not an image" + (files.length > 1
+                        ? "; remove it from the folder" : " (a report, a directory or another non-image DICOM object); "
+                        + "give an image file or a folder of one series"));
             }
             if (f.columns() != first.columns() || f.rows() != first.rows()) {
                 throw new InputException("the series mixes image sizes (" + first.columns() + "x" + first.rows()

@@ -94,6 +94,21 @@ class BadInputCliTest {
         assertTrue(r.out().contains("no finite expectation"), r.out());
     }
 
+    /**
+     * A DICOM file that is not an image, given alone (pydicom's DICOMDIR, made by DCMTK's dcmmkdir; see
+     * the opendata README): one line saying what it is and what to give instead.
+     */
+    @Test
+    void aDicomFileThatIsNotAnImageIsNamedAsSuch() throws Exception {
+        Path d = dir.resolve("DICOMDIR");
+        try (java.io.InputStream in = getClass().getResourceAsStream("/opendata/DICOMDIR")) {
+            Files.write(d, in.readAllBytes());
+        }
+        String m = inputError("background", d.toString(), "--signal", "1,1,5,5", "--background", "10,10,4,4");
+        assertTrue(m.endsWith("holds no pixel data: it is not an image (a report, a directory or another non-image "
+                + "DICOM object); give an image file or a folder of one series"), m);
+    }
+
     /** Trend plots obey --force like every other output (issue 15.9). */
     @Test
     void trendPlotsAreNotReplacedWithoutForce() throws Exception {

@@ -257,6 +257,7 @@ public final class DicomSeries {
     private static ImagePlus assemble(DicomFile[] files, String title, Integer echo, String echoHint, String info)
             throws InputException {
         DicomFile first = files[0];
+        requirePixels(first, files.length);
         Mosaic mosaic = Mosaic.of(first);
         int w = mosaic == null ? first.columns() : mosaic.tileWidth();
         int h = mosaic == null ? first.rows() : mosaic.tileHeight();
@@ -268,11 +269,7 @@ public final class DicomSeries {
         List<DicomFile.Frame> facts = new ArrayList<>();
         List<DicomFile> owners = new ArrayList<>();
         for (DicomFile f : files) {
-            if (!f.hasPixels()) {
-                throw new InputException("'" + f.path() + "' holds no pixel data: it is not an image" + (files.length > 1
-                        ? "; remove it from the folder" : " (a report, a directory or another non-image DICOM object); "
-                        + "give an image file or a folder of one series"));
-            }
+            requirePixels(f, files.length);
             if (f.columns() != first.columns() || f.rows() != first.rows()) {
                 throw new InputException("the series mixes image sizes (" + first.columns() + "x" + first.rows()
                         + " and " + f.columns() + "x" + f.rows() + "): put each series in its own folder");
@@ -380,6 +377,21 @@ public final class DicomSeries {
         }
         Arrangement.mark(out, note);
         return out;
+    }
+
+    /** Refuses a file without pixel data, saying whether it is a damaged image or no image at all. */
+    private static void requirePixels(DicomFile f, int filesInSeries) throws InputException {
+        if (f.hasPixels()) {
+            return;
+        }
+        if (!f.notAnImage()) {
+            throw new InputException("'" + f.path() + "' states an image size (" + f.columns() + "x" + f.rows()
+                    + ") but holds no pixel data: the file is damaged or was exported without its pixels; export the "
+                    + "image again");
+        }
+        throw new InputException("'" + f.path() + "' holds no pixel data: it is not an image" + (filesInSeries > 1
+                ? "; remove it from the folder" : " (a report, a directory or another non-image DICOM object); give an "
+                + "image file or a folder of one series"));
     }
 
     private static Double smaller(Double a, Double b) {

@@ -8,7 +8,6 @@ import com.google.gson.JsonObject;
 import com.google.gson.JsonParser;
 import ij.ImagePlus;
 import ij.process.FloatProcessor;
-import java.io.InputStream;
 import java.io.PrintWriter;
 import java.io.StringWriter;
 import java.nio.file.Files;
@@ -223,10 +222,7 @@ class ReadmeClaimsTest {
     /** Phase direction, field strength, scanner, coil, protocol and acquisition time come from DICOM. */
     @Test
     void acquisitionFactsFromDicom() throws Exception {
-        byte[] d;
-        try (InputStream in = getClass().getResourceAsStream("/opendata/MR_small.dcm")) {
-            d = in.readAllBytes();
-        }
+        byte[] d = org.noisewise.testing.OpenData.bytes("MR_small.dcm");
         d = DicomEdit.set(d, 0x0018, 0x0087, "DS", "3");
         d = DicomEdit.set(d, 0x0018, 0x1312, "CS", "ROW");
         Path f = dir.resolve("edited.dcm");
@@ -260,10 +256,7 @@ class ReadmeClaimsTest {
     /** A folder's DICOM files are grouped by 0020,000E and its slices ordered by position along the normal (0020,0032). */
     @Test
     void seriesGroupingAndOrder() throws Exception {
-        byte[] d;
-        try (InputStream in = getClass().getResourceAsStream("/opendata/MR_small.dcm")) {
-            d = in.readAllBytes();
-        }
+        byte[] d = org.noisewise.testing.OpenData.bytes("MR_small.dcm");
         Path folder = Files.createDirectory(dir.resolve("series"));
         double[] z = {20, 0, 10};
         for (int i = 0; i < 3; i++) {

@@ -100,19 +100,13 @@ class BadInputCliTest {
      */
     @Test
     void aDicomFileThatIsNotAnImageIsNamedAsSuch() throws Exception {
-        Path d = dir.resolve("DICOMDIR");
-        try (java.io.InputStream in = getClass().getResourceAsStream("/opendata/DICOMDIR")) {
-            Files.write(d, in.readAllBytes());
-        }
+        Path d = org.noisewise.testing.OpenData.copy("DICOMDIR", dir.resolve("DICOMDIR"));
         String m = inputError("background", d.toString(), "--signal", "1,1,5,5", "--background", "10,10,4,4");
         assertTrue(m.endsWith("holds no pixel data: it is not an image (a report, a directory or another non-image "
                 + "DICOM object); give an image file or a folder of one series"), m);
         // nibabel's Siemens header whose pixel data were removed (it still states 384 x 384 and calls itself a
         // mosaic without saying of how many slices): the missing pixels are what is named
-        Path stripped = dir.resolve("stripped.dcm");
-        try (java.io.InputStream in = getClass().getResourceAsStream("/opendata/siemens_no_pixels.dcm")) {
-            Files.write(stripped, in.readAllBytes());
-        }
+        Path stripped = org.noisewise.testing.OpenData.copy("siemens_no_pixels.dcm", dir.resolve("stripped.dcm"));
         String s = inputError("background", stripped.toString(), "--signal", "1,1,5,5", "--background", "10,10,4,4");
         assertTrue(s.endsWith("states an image size (384x384) but holds no pixel data: the file is damaged or was "
                 + "exported without its pixels; export the image again"), s);

@@ -10,7 +10,6 @@ import com.google.gson.JsonParser;
 import ij.ImagePlus;
 import ij.ImageStack;
 import java.io.IOException;
-import java.io.InputStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
@@ -133,9 +132,7 @@ class BatchCommandTest {
         assertEquals(4.0, JsonParser.parseString(diff.out()).getAsJsonArray().get(0).getAsJsonObject()
                 .get("sigma").getAsDouble(), 0.6);
         Path dicom = Files.createDirectory(dir.resolve("dicom"));
-        try (InputStream in = getClass().getResourceAsStream("/opendata/MR_small.dcm")) {
-            Files.write(dicom.resolve("IM0001"), in.readAllBytes());
-        }
+        org.noisewise.testing.OpenData.copy("MR_small.dcm", dicom.resolve("IM0001"));
         CliRunner.Result d = CliRunner.run("batch", dicom.toString(), "--method", "background", "--signal", "20,20,20,20",
                 "--background", "0,0,8,8", "--json");
         JsonObject dr = JsonParser.parseString(d.out()).getAsJsonArray().get(0).getAsJsonObject();

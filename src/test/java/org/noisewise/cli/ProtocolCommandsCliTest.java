@@ -138,10 +138,7 @@ class ProtocolCommandsCliTest {
     /** --from and --to also take a DICOM file whose header states the protocol (pydicom's MR_small.dcm, edited). */
     @Test
     void predictFromADicomHeader() throws Exception {
-        byte[] d;
-        try (java.io.InputStream in = getClass().getResourceAsStream("/opendata/MR_small.dcm")) {
-            d = in.readAllBytes();
-        }
+        byte[] d = org.noisewise.testing.OpenData.bytes("MR_small.dcm");
         d = org.noisewise.testing.DicomEdit.set(d, 0x0018, 0x0050, "DS", "5");
         d = org.noisewise.testing.DicomEdit.set(d, 0x0018, 0x0083, "DS", "1");
         d = org.noisewise.testing.DicomEdit.set(d, 0x0018, 0x0087, "DS", "1.5");

@@ -253,9 +253,7 @@ class ScannerSeriesCliTest {
         ScannerSeries.folder(ScannerSeries.spec("batch", 2, 5, SEED, false), root, "week49");
         // an export as media hold it: a DICOMDIR at the top (pydicom's, made by DCMTK's dcmmkdir; see the
         // opendata README), which is DICOM but not an image
-        try (java.io.InputStream in = getClass().getResourceAsStream("/opendata/DICOMDIR")) {
-            Files.write(root.resolve("DICOMDIR"), in.readAllBytes());
-        }
+        org.noisewise.testing.OpenData.copy("DICOMDIR", root.resolve("DICOMDIR"));
         CliRunner.Result r = CliRunner.run("batch", root.toString(), "--method", "repeat", "--signal",
                 ScannerSeries.SIGNAL, "--json");
         JsonArray rows = rows(r);

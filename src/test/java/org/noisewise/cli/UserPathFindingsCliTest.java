@@ -11,7 +11,6 @@ import ij.ImageStack;
 import ij.process.FloatProcessor;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
-import java.io.InputStream;
 import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -216,10 +215,7 @@ class UserPathFindingsCliTest {
     /** 20.11: damaged NIfTI files get a cause and an action, never a library's raw words. */
     @Test
     void damagedNiftiSaysWhatToDo() throws IOException {
-        byte[] good;
-        try (InputStream in = getClass().getResourceAsStream("/opendata/functional.nii")) {
-            good = in.readAllBytes();
-        }
+        byte[] good = org.noisewise.testing.OpenData.bytes("functional.nii");
         Path notGzip = Files.write(dir.resolve("plain.nii.gz"), good);
         Path cut = dir.resolve("cut.nii.gz");
         ByteArrayOutputStream gz = new ByteArrayOutputStream();
@@ -249,10 +245,7 @@ class UserPathFindingsCliTest {
         assertEquals(0, spaced.status(), spaced.err());
         assertEquals(0.6, JsonParser.parseString(spaced.out()).getAsJsonObject().get("ratio").getAsDouble(), 1e-9,
                 "the reference sheet's check value, closed form");
-        byte[] d;
-        try (InputStream in = getClass().getResourceAsStream("/opendata/MR_small.dcm")) {
-            d = in.readAllBytes();
-        }
+        byte[] d = org.noisewise.testing.OpenData.bytes("MR_small.dcm");
         Path dcm = Files.write(dir.resolve("mr.dcm"), d);
         CliRunner.Result completed = CliRunner.run("predict", "--from", dcm + ",phase=64,averages=1,bandwidth=130",
                 "--to", dcm + ",phase=64,averages=4,bandwidth=130", "--json");

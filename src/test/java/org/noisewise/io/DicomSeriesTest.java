@@ -9,11 +9,8 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import ij.ImagePlus;
 import ij.Prefs;
 import ij.io.Opener;
-import java.io.IOException;
-import java.io.InputStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.zip.GZIPInputStream;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.noisewise.estimate.InputException;
@@ -391,13 +388,8 @@ class DicomSeriesTest {
 
     // ---- real files from Debian's packages (src/test/resources/opendata/README.md) -----------------------------
 
-    private Path resource(String name, Path to) throws IOException {
-        try (InputStream in = getClass().getResourceAsStream("/opendata/" + name)) {
-            assertNotNull(in, name);
-            InputStream src = name.endsWith(".gz") ? new GZIPInputStream(in) : in;
-            Files.write(to, src.readAllBytes());
-        }
-        return to;
+    private Path resource(String name, Path to) {
+        return org.noisewise.testing.OpenData.copy(name, to);
     }
 
     /**

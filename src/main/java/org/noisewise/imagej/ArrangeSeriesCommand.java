@@ -12,8 +12,8 @@ import org.noisewise.io.Arrangement;
  * from DICOM (File > Import > Image Sequence of a series folder, or an enhanced multi-frame file): a
  * new hyperstack of its z slices and repeats, arranged from the headers as the measuring commands
  * arrange it, with one echo of a multi-echo series; Siemens mosaics (a stack of them, or one) are cut
- * into their slices, which the measuring commands leave to this command. The original stack is not changed; the new image
- * holds copies of its planes, with each image's rescale applied when they differ.
+ * into their slices, which the measuring commands leave to this command. The original stack is not
+ * changed; the new image holds copies of its planes, with each image's rescale applied when they differ.
  *
  * <p>Macro keys: {@code echo} (1 for the first echo; 0 when the series holds one echo).
  */

@@ -66,7 +66,7 @@ public final class Arrangement {
             // one image: only a Siemens mosaic (one volume's slices, its header in the image's Info) has a layout
             FileInfo fi = imp.getOriginalFileInfo();
             String info = imp.getInfoProperty();
-            if (fi == null || fi.fileName == null || info == null || !mosaicType(value(info, "0008,0008"))) {
+            if (fi == null || fi.fileName == null || info == null || !Mosaic.named(value(info, "0008,0008"))) {
                 return imp;
             }
             return mosaics(imp, new String[] {fi.fileName + "\n" + info}, echo, echoHint, mosaicHint);
@@ -81,7 +81,7 @@ public final class Arrangement {
             headers[i - 1] = labelled ? label : null;
         }
         if (labelled) {
-            if (mosaicType(value(headers[0], "0008,0008"))) {
+            if (Mosaic.named(value(headers[0], "0008,0008"))) {
                 return mosaics(imp, headers, echo, echoHint, mosaicHint);
             }
             return fromLabels(imp, headers, echo, echoHint);
@@ -154,11 +154,6 @@ public final class Arrangement {
 
     // ---- Image Sequence stacks of Siemens mosaics ----------------------------------------------------------------
 
-    private static boolean mosaicType(String imageType) {
-        return imageType != null && java.util.Arrays.stream(imageType.split("\\\\"))
-                .anyMatch(v -> v.trim().equals("MOSAIC"));
-    }
-
     /** A stack (or one image) of Siemens mosaics: cut, refused with the hint, or read plain when it cannot be one. */
     private static ImagePlus mosaics(ImagePlus imp, String[] headers, Integer echo, String echoHint, String mosaicHint)
             throws InputException {
@@ -218,7 +213,7 @@ public final class Arrangement {
         String h0 = headers[0];
         Double thickness = number(value(h0, "0018,0050"));
         Double between = number(value(h0, "0018,0088"));
-        double step = between != null && between > 0 ? between : thickness != null && thickness > 0 ? thickness : 1.0;
+        double step = Mosaic.step(thickness, between);
         for (int i = 0; i < n; i++) {
             String h = headers[i];
             String name = h.substring(0, h.indexOf('\n')).trim();

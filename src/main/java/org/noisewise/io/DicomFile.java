@@ -144,9 +144,7 @@ public final class DicomFile {
         Double sb = number(top.get(0x00180088));
         this.spacingBetween = sb != null ? sb : number(get(top, SHARED, 0x00289110, 0x00180088));
         this.enhanced = top.get(PER_FRAME) instanceof List<?> l && !l.isEmpty();
-        String type = text(top.get(0x00080008));
-        this.mosaicType = type != null && java.util.Arrays.stream(type.split("\\\\"))
-                .anyMatch(v -> v.trim().equals("MOSAIC"));
+        this.mosaicType = Mosaic.named(text(top.get(0x00080008)));
         String creator = text(top.get(0x00190010));
         this.mosaicSlices = creator != null && creator.trim().equals("SIEMENS MR HEADER")
                 ? unsignedShort(top.get(MOSAIC_SLICES)) : null;
@@ -550,7 +548,7 @@ public final class DicomFile {
         if (!(o instanceof Value v)) {
             return null;
         }
-        if (v.bytes().length == 2 && Set.of("US", "UN", "OB", "OW", "TX").contains(v.vr())) {
+        if (v.bytes().length == 2 && TWO_BYTES.contains(v.vr())) {
             int lo = v.bytes()[v.bigEndian() ? 1 : 0] & 0xff;
             int hi = v.bytes()[v.bigEndian() ? 0 : 1] & 0xff;
             return hi << 8 | lo;
@@ -561,6 +559,9 @@ public final class DicomFile {
         }
         return null;
     }
+
+    /** Value representations under which a private unsigned short may stand as its two bytes. */
+    private static final Set<String> TWO_BYTES = Set.of("US", "UN", "OB", "OW", "TX");
 
     private static String text(Object o) {
         return o instanceof Value v ? v.text() : null;
@@ -751,7 +752,6 @@ public final class DicomFile {
         return sopInstance;
     }
 
-    /** True for a multi-frame file with per-frame functional groups (Enhanced MR and the like). */
     /** True when Image Type (0008,0008) names this image a MOSAIC (Siemens' tiled slices). */
     public boolean mosaicType() {
         return mosaicType;
@@ -762,6 +762,7 @@ public final class DicomFile {
         return mosaicSlices;
     }
 
+    /** True for a multi-frame file with per-frame functional groups (Enhanced MR and the like). */
     public boolean enhanced() {
         return enhanced;
     }

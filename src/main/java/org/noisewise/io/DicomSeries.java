@@ -262,8 +262,7 @@ public final class DicomSeries {
         int w = mosaic == null ? first.columns() : mosaic.tileWidth();
         int h = mosaic == null ? first.rows() : mosaic.tileHeight();
         // a mosaic's slices are placed one step apart along the normal, in their stored order
-        double step = first.spacingBetween() != null && first.spacingBetween() > 0 ? first.spacingBetween()
-                : first.thickness() != null && first.thickness() > 0 ? first.thickness() : 1.0;
+        double step = Mosaic.step(first.thickness(), first.spacingBetween());
         List<SeriesLayout.Item> items = new ArrayList<>();
         List<Object> planes = new ArrayList<>();
         List<DicomFile.Frame> facts = new ArrayList<>();

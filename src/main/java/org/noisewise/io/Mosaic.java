@@ -37,6 +37,28 @@ public record Mosaic(int slices, int grid, int tileWidth, int tileHeight) {
         return new Mosaic(slices, grid, columns / grid, rows / grid);
     }
 
+    /** True when an Image Type (0008,0008) value names the image a MOSAIC. */
+    static boolean named(String imageType) {
+        if (imageType == null) {
+            return false;
+        }
+        for (String v : imageType.split("\\\\")) {
+            if (v.trim().equals("MOSAIC")) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /**
+     * The step between a mosaic's slices along the normal: Spacing Between Slices (0018,0088), else the
+     * slice thickness (0018,0050), else 1 mm.
+     */
+    static double step(Double thickness, Double spacingBetween) {
+        return spacingBetween != null && spacingBetween > 0 ? spacingBetween
+                : thickness != null && thickness > 0 ? thickness : 1.0;
+    }
+
     /** The words for a note when an image Image Type calls a mosaic cannot be one. */
     static String notCut(Integer slices, int columns, int rows) {
         int grid = (int) Math.ceil(Math.sqrt(slices));

@@ -154,6 +154,40 @@ public final class Arrangement {
 
     // ---- Image Sequence stacks of Siemens mosaics ----------------------------------------------------------------
 
+    /**
+     * For a Siemens mosaic measured as the image it is (a single-plane command on a mosaic, or a stack of
+     * them, as ImageJ opened it): a note that its regions lie on the whole mosaic, or null for any other image.
+     *
+     * @param cutHint what the user does to measure the mosaic's slices, in the face's words
+     */
+    public static String mosaicNote(ImagePlus imp, String cutHint) {
+        if (known(imp) || imp.getNFrames() > 1 || imp.getNChannels() > 1) {
+            return null;
+        }
+        String header;
+        if (imp.getStackSize() > 1) {
+            String label = imp.getStack().getSliceLabel(1);
+            header = label != null && label.indexOf('\n') > 0 ? label : null;
+        } else {
+            FileInfo fi = imp.getOriginalFileInfo();
+            String info = imp.getInfoProperty();
+            header = fi == null || fi.fileName == null || info == null ? null : fi.fileName + "\n" + info;
+        }
+        if (header == null || !Mosaic.named(value(header, "0008,0008"))) {
+            return null;
+        }
+        Mosaic m;
+        try {
+            m = Mosaic.of(mosaicSlices(imp, header), imp.getWidth(), imp.getHeight(), imp.getTitle());
+        } catch (InputException e) {
+            return null;
+        }
+        return m == null ? null : "'" + imp.getTitle() + "' " + (imp.getStackSize() > 1 ? "is a stack of Siemens "
+                + "mosaics, measured mosaic by mosaic" : "is a Siemens mosaic, measured as one image") + ": its regions "
+                + "and automatic air lie on the whole mosaic of " + m.slices() + " slices (" + m.grid() + " x " + m.grid()
+                + " tiles of " + m.tileWidth() + " x " + m.tileHeight() + "); to measure slice by slice, " + cutHint;
+    }
+
     /** A stack (or one image) of Siemens mosaics: cut, refused with the hint, or read plain when it cannot be one. */
     private static ImagePlus mosaics(ImagePlus imp, String[] headers, Integer echo, String echoHint, String mosaicHint)
             throws InputException {

@@ -26,6 +26,12 @@ public record Measurement(List<ResultRow> rows, List<ImagePlus> images, List<Plo
      * The notes every measurement starts with: how each input series was arranged as slices and
      * repeats, and a colour lookup table on an input.
      */
+    /**
+     * How a user cuts a mosaic the measurement took as it is. Only Fiji reaches this (the command line
+     * cuts every DICOM mosaic it reads), so the words are Fiji's.
+     */
+    private static final String MOSAIC_CUT = "cut it into its slices with Plugins > Noisewise > Arrange Series...";
+
     static List<String> imageNotes(ImagePlus... images) {
         List<String> notes = new ArrayList<>();
         for (ImagePlus imp : images) {
@@ -36,6 +42,10 @@ public record Measurement(List<ResultRow> rows, List<ImagePlus> images, List<Plo
             // a single image needs no word on how it was arranged
             if (a != null && imp.getStackSize() > 1 && !notes.contains(a)) {
                 notes.add(a);
+            }
+            String mosaic = Arrangement.mosaicNote(imp, MOSAIC_CUT);
+            if (mosaic != null) {
+                notes.add(mosaic);
             }
             String n = ImagePlanes.lookupTableNote(imp);
             if (n != null) {

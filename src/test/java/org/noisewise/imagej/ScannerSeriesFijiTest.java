@@ -277,10 +277,19 @@ class ScannerSeriesFijiTest {
             double w = cli.get(z).getAsJsonObject().get("snr").getAsDouble();
             assertEquals(w, rt.getValue("SNR (corrected)", z), 1e-6 * w, "z " + (z + 1) + " as the command line");
         }
-        // one mosaic file opened alone (its header in the image's Info) is one volume: Arrange Series cuts it too
+        // one mosaic file opened alone (its header in the image's Info) is one volume: a single-plane command
+        // measures it as the image it is and says so; Arrange Series cuts it too
         ImagePlus single = new Opener().openImage(folder.resolve("MOSAIC0005.dcm").toString());
         assertNotNull(single);
         single.show();
+        Roi air = new Roi(2, 2, 10, 10);
+        air.setName("background");
+        rm.addRoi(air);
+        IJ.log("\\Clear");
+        IJ.run(single, "SNR (Background Regions)...", "channels=1 slices=[All slices]");
+        assertTrue(IJ.getLog().contains("is a Siemens mosaic, measured as one image: its regions and automatic air lie "
+                + "on the whole mosaic of 3 slices (2 x 2 tiles of 64 x 64); to measure slice by slice, cut it into its "
+                + "slices with Plugins > Noisewise > Arrange Series..."), IJ.getLog());
         IJ.run(single, "Arrange Series...", "echo=0");
         ImagePlus volume = WindowManager.getImage(single.getTitle() + " (arranged)");
         assertNotNull(volume, IJ.getLog());

@@ -225,6 +225,21 @@ class AutomaticAirCliTest {
         assertTrue(sa < 0.6 * sb, "all the air is more precise than four corners");
     }
 
+    /**
+     * A background region drawn by hand in the zero-filled band: the check says why it is invalid and
+     * still draws the histogram (a bar at zero, no curve fitted to noise that is not there).
+     */
+    @Test
+    void aRegionDrawnInTheZeroFilledBandIsJudgedNotAnError() throws IOException {
+        Path plot = dir.resolve("zero_band.png");
+        CliRunner.Result r = CliRunner.run("check", HEAD, "--background", "0,40,"
+                + HeadSample.ZERO_BAND + ",40", "--plot", plot.toString(), "--json");
+        JsonObject o = json(r);
+        assertEquals("invalid", o.get("verdict").getAsString());
+        assertTrue(o.get("warnings").toString().contains("masked_background"), o.get("warnings").toString());
+        assertTrue(Files.size(plot) > 0, "the histogram was drawn");
+    }
+
     private static double width(JsonObject o) {
         JsonArray ci = o.getAsJsonArray("sigma_ci95");
         return Math.log(ci.get(1).getAsDouble()) - Math.log(ci.get(0).getAsDouble());

@@ -37,8 +37,12 @@ public class NoisewiseCli implements Runnable {
     public static void main(String[] args) {
         System.setProperty("java.awt.headless", "true");
         int status;
+        PrintWriter out = new PrintWriter(System.out, true);
+        // standard output carries the results alone: what a library prints there (ImageJ's error and log
+        // messages in a process without windows) goes to standard error with the notes
+        System.setOut(System.err);
         try {
-            status = execute(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true));
+            status = execute(args, out, new PrintWriter(System.err, true));
         } catch (OutOfMemoryError e) {
             // the heap was still full when the error was to be reported: the words made in advance
             System.err.println(OUT_OF_MEMORY);

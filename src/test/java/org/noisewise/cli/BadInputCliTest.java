@@ -112,6 +112,32 @@ class BadInputCliTest {
                 + "exported without its pixels; export the image again"), s);
     }
 
+    /**
+     * Standard output holds the results alone, as a pipeline reads them: ImageJ's own message for a file
+     * it cannot open ("Unsupported format ...", which it prints on standard output when there is no window)
+     * goes to standard error, so a batch's JSON still parses. Run as a process of its own, as a user runs it.
+     */
+    @Test
+    void standardOutputHoldsOnlyTheResults() throws Exception {
+        Path folder = Files.createDirectories(dir.resolve("with-unknown"));
+        Files.copy(a, folder.resolve("a.tif"));
+        try (java.util.zip.GZIPOutputStream gz = new java.util.zip.GZIPOutputStream(Files.newOutputStream(
+                folder.resolve("archive.gz")))) {
+            gz.write("not an image".getBytes(java.nio.charset.StandardCharsets.US_ASCII));
+        }
+        String jvm = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        Path out = dir.resolve("batch-out.json");
+        Path err = dir.resolve("batch-err.txt");
+        Process p = new ProcessBuilder(jvm, "-cp", System.getProperty("java.class.path"), NoisewiseCli.class.getName(),
+                "batch", folder.toString(), "--method", "background", "--signal", "38,38,20,20", "--background",
+                "1,1,14,14", "--json").redirectOutput(out.toFile()).redirectError(err.toFile()).start();
+        assertTrue(p.waitFor(120, java.util.concurrent.TimeUnit.SECONDS), "batch still running");
+        assertEquals(4, p.exitValue(), Files.readString(err));
+        com.google.gson.JsonArray rows = com.google.gson.JsonParser.parseString(Files.readString(out)).getAsJsonArray();
+        assertEquals(2, rows.size(), Files.readString(out));
+        assertTrue(Files.readString(err).contains("Unsupported format"), "ImageJ's message is kept, on stderr");
+    }
+
     /** Trend plots obey --force like every other output (issue 15.9). */
     @Test
     void trendPlotsAreNotReplacedWithoutForce() throws Exception {

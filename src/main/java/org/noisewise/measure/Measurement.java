@@ -23,15 +23,15 @@ public record Measurement(List<ResultRow> rows, List<ImagePlus> images, List<Plo
     }
 
     /**
-     * The notes every measurement starts with: how each input series was arranged as slices and
-     * repeats, and a colour lookup table on an input.
-     */
-    /**
      * How a user cuts a mosaic the measurement took as it is. Only Fiji reaches this (the command line
      * cuts every DICOM mosaic it reads), so the words are Fiji's.
      */
     private static final String MOSAIC_CUT = "cut it into its slices with Plugins > Noisewise > Arrange Series...";
 
+    /**
+     * The notes every measurement starts with: how each input series was arranged as slices and
+     * repeats, a Siemens mosaic measured as the image it is, and a colour lookup table on an input.
+     */
     static List<String> imageNotes(ImagePlus... images) {
         List<String> notes = new ArrayList<>();
         for (ImagePlus imp : images) {

@@ -64,12 +64,11 @@ public final class Arrangement {
         }
         if (imp.getStackSize() < 2) {
             // one image: only a Siemens mosaic (one volume's slices, its header in the image's Info) has a layout
-            FileInfo fi = imp.getOriginalFileInfo();
-            String info = imp.getInfoProperty();
-            if (fi == null || fi.fileName == null || info == null || !Mosaic.named(value(info, "0008,0008"))) {
+            String header = singleImageHeader(imp);
+            if (header == null || !Mosaic.named(value(header, "0008,0008"))) {
                 return imp;
             }
-            return mosaics(imp, new String[] {fi.fileName + "\n" + info}, echo, echoHint, mosaicHint);
+            return mosaics(imp, new String[] {header}, echo, echoHint, mosaicHint);
         }
         ImageStack stack = imp.getStack();
         int n = stack.getSize();
@@ -169,9 +168,7 @@ public final class Arrangement {
             String label = imp.getStack().getSliceLabel(1);
             header = label != null && label.indexOf('\n') > 0 ? label : null;
         } else {
-            FileInfo fi = imp.getOriginalFileInfo();
-            String info = imp.getInfoProperty();
-            header = fi == null || fi.fileName == null || info == null ? null : fi.fileName + "\n" + info;
+            header = singleImageHeader(imp);
         }
         if (header == null || !Mosaic.named(value(header, "0008,0008"))) {
             return null;
@@ -186,6 +183,16 @@ public final class Arrangement {
                 + "mosaics, measured mosaic by mosaic" : "is a Siemens mosaic, measured as one image") + ": its regions "
                 + "and automatic air lie on the whole mosaic of " + m.slices() + " slices (" + m.grid() + " x " + m.grid()
                 + " tiles of " + m.tileWidth() + " x " + m.tileHeight() + "); to measure slice by slice, " + cutHint;
+    }
+
+    /**
+     * One image's DICOM header as a slice label holds it (its file name, then ImageJ's header text from
+     * the image's Info), or null when it was not opened from a DICOM file.
+     */
+    private static String singleImageHeader(ImagePlus imp) {
+        FileInfo fi = imp.getOriginalFileInfo();
+        String info = imp.getInfoProperty();
+        return fi == null || fi.fileName == null || info == null ? null : fi.fileName + "\n" + info;
     }
 
     /** A stack (or one image) of Siemens mosaics: cut, refused with the hint, or read plain when it cannot be one. */
@@ -273,7 +280,7 @@ public final class Arrangement {
         SeriesLayout.Layout l = SeriesLayout.arrange(items, echo, echoHint, smaller(thickness, between),
                 integer(value(h0, "0020,0105")));
         SeriesLayout.Layout layout = new SeriesLayout.Layout(l.slices(), l.repeats(), l.order(), l.spacing(),
-                l.note().replace(SeriesLayout.BY_POSITION, m.describe()));
+                m.placed(l.note()));
         ImagePlus tilesImp = new ImagePlus(imp.getTitle(), cut);
         tilesImp.setCalibration(imp.getCalibration().copy());
         return view(tilesImp, layout, slope, intercept, signed, h0.substring(h0.indexOf('\n') + 1),

@@ -180,8 +180,7 @@ public final class DicomSeries {
         }
         if (groups.isEmpty() && !nonImages.isEmpty()) {
             throw new InputException("folder '" + folder + "' holds no DICOM images, only " + nonImages.size()
-                    + " DICOM file(s) that are not images (" + String.join(", ", nonImages.stream().limit(3).toList())
-                    + (nonImages.size() > 3 ? ", ..." : "") + "): give the folder of one series (an export keeps its "
+                    + " DICOM file(s) that are not images (" + firstNames(nonImages) + "): give the folder of one series (an export keeps its "
                     + "images in sub-folders), or run batch on the whole export");
         }
         if (groups.isEmpty()) {
@@ -207,7 +206,7 @@ public final class DicomSeries {
             Arrangement.mark(out, Arrangement.note(out) + "; left out " + nonImages.size() + " DICOM file"
                     + (nonImages.size() == 1 ? "" : "s") + " that " + (nonImages.size() == 1 ? "is" : "are")
                     + " not an image (no pixel data: a DICOMDIR, a report or a presentation state): "
-                    + String.join(", ", nonImages.stream().limit(3).toList()) + (nonImages.size() > 3 ? ", ..." : ""));
+                    + firstNames(nonImages));
         }
         return out;
     }
@@ -365,8 +364,7 @@ public final class DicomSeries {
         if (info != null) {
             out.setProperty("Info", info);
         }
-        String note = "'" + title + "': " + (mosaic == null ? layout.note()
-                : layout.note().replace(SeriesLayout.BY_POSITION, mosaic.describe()));
+        String note = "'" + title + "': " + (mosaic == null ? layout.note() : mosaic.placed(layout.note()));
         if (mosaic == null && first.mosaicType()) {
             note += "; " + Mosaic.notCut(first.mosaicSlices(), first.columns(), first.rows());
         }
@@ -376,6 +374,11 @@ public final class DicomSeries {
         }
         Arrangement.mark(out, note);
         return out;
+    }
+
+    /** The first three names, then "..." when there are more. */
+    private static String firstNames(List<String> names) {
+        return String.join(", ", names.stream().limit(3).toList()) + (names.size() > 3 ? ", ..." : "");
     }
 
     /** Refuses a file without pixel data, saying whether it is a damaged image or no image at all. */

@@ -109,9 +109,10 @@ public record Mosaic(int slices, int grid, int tileWidth, int tileHeight) {
                 mosaicPosition[2] + k * stepMm * n[2]};
     }
 
-    /** The words for a note: how each image was cut. */
-    String describe() {
-        return "the tiles of each Siemens mosaic (" + slices + " slices in " + grid + " x " + grid + " tiles of "
-                + tileWidth + " x " + tileHeight + ", Number of Images in Mosaic 0019,100A), in their stored order";
+    /** An arrangement note with the slices said to be placed from the mosaics' tiles rather than from positions. */
+    String placed(String layoutNote) {
+        return layoutNote.replace(SeriesLayout.BY_POSITION, "the tiles of each Siemens mosaic (" + slices + " slices in "
+                + grid + " x " + grid + " tiles of " + tileWidth + " x " + tileHeight + ", Number of Images in Mosaic "
+                + "0019,100A), in their stored order");
     }
 }
